@@ -1,0 +1,105 @@
+/**
+ * /v1/local — every flow and clock quantity at one point around one body.
+ */
+import { z } from 'zod';
+import { CATALOGUE_BY_NAME } from '../catalogue.js';
+import { evaluateLocal, LOCAL_QUANTITIES } from '../physics/local.js';
+import { toQuantity } from '../units/convert.js';
+import {
+  bodyInput,
+  bodyPointFromQuery,
+  bodyPointQuery,
+  normalizeBody,
+  normalizePoint,
+  pointInput,
+  queryPath,
+} from './inputs.js';
+import {
+  bodyEcho,
+  bodyEchoSchema,
+  bodyNotes,
+  CAUTION,
+  pointEcho,
+  pointEchoSchema,
+  quantityValue,
+  service,
+  serviceStamp,
+} from './responses.js';
+import type { ComputeRoute } from './route.js';
+
+export const localRequest = z.strictObject({ body: bodyInput, point: pointInput }).meta({ id: 'LocalRequest' });
+export type LocalRequest = z.infer<typeof localRequest>;
+
+const metricComponents = (keys: readonly string[]) =>
+  z.object(Object.fromEntries(keys.map((k) => [k, z.number().nullable()])));
+
+export const localResponse = z
+  .object({
+    service: serviceStamp,
+    body: bodyEchoSchema,
+    point: pointEchoSchema,
+    quantities: z.object(Object.fromEntries(LOCAL_QUANTITIES.map((n) => [n, quantityValue]))),
+    hoverAccelerationComponents: z
+      .object({ r: z.number().nullable(), theta: z.number().nullable(), unit: z.literal('1/M') })
+      .meta({ description: 'Covariant components (a_r, a_θ) of the hovering observer\'s acceleration, geometric units.' }),
+    metric: z.object({
+      boyerLindquist: metricComponents(['tt', 'tphi', 'rr', 'thth', 'phph']).meta({
+        description: 'Covariant Boyer–Lindquist components at the point, geometric units (t and r in GM/c³, GM/c²).',
+      }),
+      river: metricComponents(['TT', 'Tr', 'TPhi', 'rr', 'rPhi', 'thth', 'PhiPhi'])
+        .nullable()
+        .meta({
+          description:
+            'Covariant components in river coordinates (T, r, θ, Φ) — Gullstrand–Painlevé for a = 0, Doran otherwise — regular across the horizons; null where 2r < Q².',
+        }),
+    }),
+    notes: z.array(z.string()),
+  })
+  .meta({ id: 'LocalResponse' });
+export type LocalResponse = z.infer<typeof localResponse>;
+
+const finiteOrNull = (o: object): Record<string, number | null> =>
+  Object.fromEntries(Object.entries(o).map(([k, v]) => [k, Number.isFinite(v) ? (v as number) : null]));
+
+export function computeLocal(input: LocalRequest): LocalResponse {
+  const body = normalizeBody(input.body);
+  const point = normalizePoint(input.point, body);
+  const local = evaluateLocal(body.spacetime, point.rGeometric, point.theta, body.radiusGeometric ?? undefined);
+  const quantities = Object.fromEntries(
+    LOCAL_QUANTITIES.map((n) => [n, toQuantity(n, local.values[n], body, local.reasons[n])]),
+  );
+  const notes = bodyNotes(body);
+  notes.push(
+    'Clock rates are dτ/dt against the coordinate time t, the proper time of a clock at rest far away; offsets are 1 − rate, computed without cancellation.',
+    'flowSpeed is the speed of the inward flow of space (observers falling from rest at infinity) measured by the local zero-angular-momentum observer (ZAMO).',
+    CAUTION,
+  );
+  return {
+    service,
+    body: bodyEcho(body),
+    point: pointEcho(point, local.region),
+    quantities,
+    hoverAccelerationComponents: { ...finiteOrNull(local.hoverComponents), unit: '1/M' } as LocalResponse['hoverAccelerationComponents'],
+    metric: {
+      boyerLindquist: finiteOrNull(local.boyerLindquist),
+      river: local.river ? finiteOrNull(local.river) : null,
+    },
+    notes,
+  };
+}
+
+export const localRoute: ComputeRoute<LocalRequest, z.infer<typeof bodyPointQuery>> = {
+  path: '/v1/local',
+  operationId: 'local',
+  summary: 'Flow and clock quantities at a point',
+  description:
+    'Flow (river) speed, escape speed, static and ZAMO clock rates with their offsets, redshift to infinity, hover acceleration, frame-dragging rate, and the metric in Boyer–Lindquist and river form, at one point around one body. Quantities that do not exist at the point are null with a reason.',
+  tag: 'spacetime',
+  body: localRequest,
+  get: { query: bodyPointQuery, toInput: bodyPointFromQuery, pathFor: queryPath },
+  response: localResponse,
+  compute: computeLocal,
+};
+
+// Every local quantity must be in the catalogue (checked at load; a missing entry is a programming error).
+for (const n of LOCAL_QUANTITIES) if (!CATALOGUE_BY_NAME.has(n)) throw new Error(`catalogue lacks ${n}`);

@@ -1,0 +1,136 @@
+/**
+ * /v1/spacetime — the body normalised, its horizons and ergosurface, the thermodynamic properties of a
+ * black hole's horizon, and for a body with a surface the values at its equator.
+ */
+import { z } from 'zod';
+import { horizonProperties } from '../physics/horizon.js';
+import { evaluateLocal } from '../physics/local.js';
+import { ergosurfaceRadius } from '../physics/spacetime.js';
+import { toQuantity, type QuantityValue } from '../units/convert.js';
+import { bodyInput, bodyPointFromQuery, bodyPointQuery, normalizeBody, queryPath, type Body } from './inputs.js';
+import { bodyEcho, bodyEchoSchema, bodyNotes, quantityValue, service, serviceStamp } from './responses.js';
+import type { ComputeRoute } from './route.js';
+
+export const SPACETIME_QUANTITIES = [
+  'schwarzschildRadius',
+  'outerHorizon',
+  'innerHorizon',
+  'ergosurfaceEquator',
+  'ergosurfacePole',
+  'surfaceGravity',
+  'hawkingTemperature',
+  'horizonArea',
+  'horizonAngularVelocity',
+  'horizonElectricPotential',
+  'irreducibleMass',
+  'compactness',
+  'surfaceEscapeSpeed',
+  'surfaceClockOffset',
+  'surfaceHoverAcceleration',
+] as const;
+type SpacetimeQuantity = (typeof SPACETIME_QUANTITIES)[number];
+
+export const spacetimeRequest = z.strictObject({ body: bodyInput }).meta({ id: 'SpacetimeRequest' });
+export type SpacetimeRequest = z.infer<typeof spacetimeRequest>;
+
+export const bodyQuery = bodyPointQuery.pick({ body: true, mass: true, spin: true, charge: true, radius: true }).meta({ id: 'BodyQuery' });
+
+export const spacetimeResponse = z
+  .object({
+    service: serviceStamp,
+    body: bodyEchoSchema,
+    quantities: z.object(Object.fromEntries(SPACETIME_QUANTITIES.map((n) => [n, quantityValue]))),
+    notes: z.array(z.string()),
+  })
+  .meta({ id: 'SpacetimeResponse' });
+export type SpacetimeResponse = z.infer<typeof spacetimeResponse>;
+
+const BLACK_HOLE_ONLY = 'a property of a black hole\'s horizon; this body has a surface and no horizon';
+const SURFACE_ONLY = 'a black hole has no surface';
+const NAKED = 'spin² + charge² > 1: the vacuum exterior has no horizon';
+
+export function computeSpacetime(input: SpacetimeRequest): SpacetimeResponse {
+  const body = normalizeBody(input.body);
+  const s = body.spacetime;
+  const geo = new Map<SpacetimeQuantity, number>();
+  const reasons = new Map<SpacetimeQuantity, string>();
+  const R = body.radiusGeometric;
+  const belowSurface = (name: string, r: number) =>
+    `the ${name} of the vacuum exterior would lie at ${r * body.rg} m, inside the body: it does not exist`;
+
+  geo.set('schwarzschildRadius', 2);
+  const hp = horizonProperties(s);
+  if (hp && R === null) {
+    geo.set('outerHorizon', hp.outer);
+    geo.set('innerHorizon', hp.inner);
+    for (const k of [
+      'surfaceGravity',
+      'hawkingTemperature',
+      'horizonArea',
+      'horizonAngularVelocity',
+      'horizonElectricPotential',
+      'irreducibleMass',
+    ] as const) {
+      geo.set(k, hp[k]);
+    }
+  } else {
+    for (const k of ['outerHorizon', 'innerHorizon'] as const) {
+      reasons.set(k, hp ? belowSurface(k === 'outerHorizon' ? 'outer horizon' : 'inner horizon', hp[k === 'outerHorizon' ? 'outer' : 'inner']) : NAKED);
+    }
+    for (const k of ['surfaceGravity', 'hawkingTemperature', 'horizonArea', 'horizonAngularVelocity', 'horizonElectricPotential', 'irreducibleMass'] as const) {
+      reasons.set(k, BLACK_HOLE_ONLY);
+    }
+  }
+  for (const [k, theta] of [['ergosurfaceEquator', Math.PI / 2], ['ergosurfacePole', 0]] as const) {
+    const e = ergosurfaceRadius(s, theta);
+    if (e === null) reasons.set(k, 'g_tt has no root here: there is no ergosurface');
+    else if (R !== null && e < R) reasons.set(k, belowSurface('ergosurface', e));
+    else geo.set(k, e);
+  }
+  if (R === null) {
+    for (const k of ['compactness', 'surfaceEscapeSpeed', 'surfaceClockOffset', 'surfaceHoverAcceleration'] as const) {
+      reasons.set(k, SURFACE_ONLY);
+    }
+  } else {
+    geo.set('compactness', 2 / R);
+    const at = evaluateLocal(s, R, Math.PI / 2, R);
+    geo.set('surfaceEscapeSpeed', at.values.escapeSpeed);
+    geo.set('surfaceClockOffset', at.values.staticClockOffset);
+    geo.set('surfaceHoverAcceleration', at.values.hoverAcceleration);
+    if (at.reasons.escapeSpeed) reasons.set('surfaceEscapeSpeed', at.reasons.escapeSpeed);
+    if (at.reasons.staticClockOffset) reasons.set('surfaceClockOffset', at.reasons.staticClockOffset);
+    if (at.reasons.hoverAcceleration) reasons.set('surfaceHoverAcceleration', at.reasons.hoverAcceleration);
+  }
+  const quantities = {} as Record<SpacetimeQuantity, QuantityValue>;
+  for (const n of SPACETIME_QUANTITIES) {
+    quantities[n] = toQuantity(n, geo.get(n) ?? Number.NaN, body, reasons.get(n));
+  }
+  return { service, body: bodyEcho(body), quantities, notes: spacetimeNotes(body) };
+}
+
+function spacetimeNotes(body: Body): string[] {
+  const notes = bodyNotes(body);
+  if (body.radius === null) {
+    notes.push(
+      'Hawking temperature assumes an isolated hole in vacuum; horizonElectricPotential is measured in the frame co-rotating with the horizon.',
+    );
+  } else {
+    notes.push(
+      'Surface values are at the equator for an observer at rest relative to distant stars (no rotation of the ground and no centrifugal term).',
+    );
+  }
+  return notes;
+}
+
+export const spacetimeRoute: ComputeRoute<SpacetimeRequest, z.infer<typeof bodyQuery>> = {
+  path: '/v1/spacetime',
+  operationId: 'spacetime',
+  summary: 'Horizons, ergosurface and horizon properties of a body',
+  description:
+    'The body normalised (kg, GM/c² in m, GM/c³ in s, a/M, Q/M), its horizons and ergosurface, and for a black hole the surface gravity, Hawking temperature, horizon area, angular velocity and electric potential, and irreducible mass; for a body with a surface, its compactness and the escape speed, clock offset and hover acceleration at its equator.',
+  tag: 'spacetime',
+  body: spacetimeRequest,
+  get: { query: bodyQuery, toInput: (q) => ({ body: bodyPointFromQuery(q).body }), pathFor: queryPath },
+  response: spacetimeResponse,
+  compute: computeSpacetime,
+};

@@ -1,0 +1,75 @@
+/**
+ * buildApp: the fastify instance with every route and plugin wired; it never listens (server.ts
+ * does). Tests use it with inject().
+ */
+import { randomUUID } from 'node:crypto';
+import fastifySwagger from '@fastify/swagger';
+import fastifySwaggerUi from '@fastify/swagger-ui';
+import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import { readCommittedOpenApi } from './api/openapi-file.js';
+import { registerQuantities } from './api/quantities.js';
+import { COMPUTE_ROUTES } from './api/registry.js';
+import { service } from './api/responses.js';
+import { registerComputeRoute } from './api/route.js';
+import { defaultConfig, type Config } from './config.js';
+import { installErrorHandling, problemBody, sendProblem } from './error-handler.js';
+import { PROBLEMS, problemTypeUri, type ProblemCode } from './errors.js';
+
+export interface AppOptions {
+  config?: Config;
+  /** fastify logger option; defaults to pino at the configured level. Tests pass false. */
+  logger?: FastifyServerOptions['logger'];
+}
+
+const SAFE_REQUEST_ID = /^[A-Za-z0-9._:-]{1,64}$/;
+
+export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
+  const config = options.config ?? defaultConfig();
+  const app = Fastify({
+    logger: options.logger ?? { level: config.LOG_LEVEL },
+    bodyLimit: config.BODY_LIMIT_BYTES,
+    requestTimeout: config.REQUEST_TIMEOUT_MS,
+    // A client's x-request-id is kept when it is short and plain; otherwise a fresh UUID.
+    requestIdHeader: false,
+    genReqId: (req) => {
+      const given = req.headers['x-request-id'];
+      return typeof given === 'string' && SAFE_REQUEST_ID.test(given) ? given : randomUUID();
+    },
+    return503OnClosing: true,
+    routerOptions: { maxParamLength: 200 },
+  });
+
+  app.addHook('onRequest', async (request, reply) => {
+    reply.header('x-request-id', request.id);
+  });
+  installErrorHandling(app);
+
+  for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route);
+  registerQuantities(app);
+
+  app.get('/problems/:code', async (request, reply) => {
+    const { code } = request.params as { code: string };
+    if (!Object.hasOwn(PROBLEMS, code)) {
+      return sendProblem(reply, problemBody(request, 'not-found', `no problem type "${code.slice(0, 64)}"`));
+    }
+    const p = PROBLEMS[code as ProblemCode];
+    return { type: problemTypeUri(code as ProblemCode), title: p.title, status: p.status, description: p.description };
+  });
+
+  const document = readCommittedOpenApi();
+  if (document) {
+    const body = JSON.stringify(document);
+    app.get('/openapi.json', async (_req, reply) => {
+      reply.type('application/json').header('cache-control', 'public, max-age=300');
+      return body;
+    });
+    await app.register(fastifySwagger, { mode: 'static', specification: { document: document as never } });
+    await app.register(fastifySwaggerUi, { routePrefix: '/docs' });
+  }
+
+  app.get('/', async () => ({
+    service,
+    links: { openapi: '/openapi.json', docs: '/docs', quantities: '/v1/quantities', spacetime: '/v1/spacetime', local: '/v1/local' },
+  }));
+  return app;
+}

@@ -1,0 +1,136 @@
+/**
+ * The quantity catalogue: every quantity the service returns, under the one name used as its key in
+ * responses, in GET /v1/quantities and (later) in sweeps, with its SI unit, how its geometric value
+ * (G = c = M = 1) converts to SI, and what it means.
+ */
+import { C, C2, HBAR, K_B, POTENTIAL_TO_VOLT } from './units/constants.js';
+
+/** How a geometric value converts to SI, given the body's scales. */
+export type Scale =
+  | 'none'
+  | 'speed'
+  | 'length'
+  | 'time'
+  | 'acceleration'
+  | 'angularVelocity'
+  | 'area'
+  | 'mass'
+  | 'temperature'
+  | 'potential';
+
+export interface BodyScales {
+  /** GM/c², m. */
+  rg: number;
+  /** GM/c³, s. */
+  tg: number;
+  /** M, kg. */
+  massKg: number;
+}
+
+export interface QuantityInfo {
+  name: string;
+  unit: string;
+  scale: Scale;
+  /** The unit of the geometric value, or null for dimensionless quantities (no geometric value sent). */
+  geometricUnit: string | null;
+  description: string;
+  endpoint: string;
+  /** Depends only on the body and the point (or the body alone), so it can be swept. */
+  sweepable: boolean;
+}
+
+const GEOMETRIC_UNIT: Record<Scale, string | null> = {
+  none: null,
+  speed: 'c',
+  length: 'GM/c^2',
+  time: 'GM/c^3',
+  acceleration: 'c^4/(GM)',
+  angularVelocity: 'c^3/(GM)',
+  area: '(GM/c^2)^2',
+  mass: 'M',
+  temperature: 'hbar c^3/(G M k_B)',
+  potential: 'c^2/sqrt(4 pi epsilon_0 G)',
+};
+
+/** Multiplies a geometric value into SI for the body. */
+export function siFactor(scale: Scale, b: BodyScales): number {
+  switch (scale) {
+    case 'none':
+      return 1;
+    case 'speed':
+      return C;
+    case 'length':
+      return b.rg;
+    case 'time':
+      return b.tg;
+    case 'acceleration':
+      return C2 / b.rg;
+    case 'angularVelocity':
+      return 1 / b.tg;
+    case 'area':
+      return b.rg * b.rg;
+    case 'mass':
+      return b.massKg;
+    case 'temperature':
+      // T = ħ κ_SI / (2π c k_B) with κ_SI = κ c²/rg; the geometric value is already κ/2π.
+      return (HBAR * C) / (K_B * b.rg);
+    case 'potential':
+      return POTENTIAL_TO_VOLT;
+  }
+}
+
+function q(
+  name: string,
+  unit: string,
+  scale: Scale,
+  endpoint: string,
+  description: string,
+): QuantityInfo {
+  return { name, unit, scale, geometricUnit: GEOMETRIC_UNIT[scale], description, endpoint, sweepable: true };
+}
+
+const LOCAL = '/v1/local';
+const SPACETIME = '/v1/spacetime';
+
+export const CATALOGUE: readonly QuantityInfo[] = [
+  q('flowSpeed', 'm/s', 'speed', LOCAL,
+    'Speed of the inward flow of space: the speed, measured by the local ZAMO, of observers falling from rest at infinity with zero angular momentum. Equals the Newtonian escape speed sqrt(2GM/r) for a non-rotating uncharged body, reaches c on the outer horizon and exceeds it inside.'),
+  q('escapeSpeed', 'm/s', 'speed', LOCAL,
+    'ZAMO-measured speed of a zero-angular-momentum launch that just reaches infinity; equal to flowSpeed outside the horizon, null at and inside it.'),
+  q('staticClockRate', '1', 'none', LOCAL,
+    'dτ/dt of a clock held at fixed r, θ, φ relative to a far-away clock: sqrt(-g_tt). Null inside the ergosurface and the horizon.'),
+  q('staticClockOffset', '1', 'none', LOCAL,
+    '1 - staticClockRate, computed without cancellation (full double precision down to 1e-300).'),
+  q('zamoClockRate', '1', 'none', LOCAL,
+    'dτ/dt of the zero-angular-momentum observer (the lapse α = sqrt(ΣΔ/A) = sqrt(1 - v_flow²/c²)).'),
+  q('zamoClockOffset', '1', 'none', LOCAL, '1 - zamoClockRate, computed without cancellation.'),
+  q('redshiftToInfinity', '1', 'none', LOCAL,
+    'Redshift z of light sent by a static emitter here and received far away: 1 + z = 1/staticClockRate.'),
+  q('hoverAcceleration', 'm/s^2', 'acceleration', LOCAL,
+    'Proper acceleration a static (hovering) observer needs to stay at fixed r, θ, φ, as its own accelerometer reads it.'),
+  q('frameDragRate', 'rad/s', 'angularVelocity', LOCAL,
+    'Angular velocity dφ/dt of the ZAMO (frame dragging), ω = -g_tφ/g_φφ.'),
+  q('schwarzschildRadius', 'm', 'length', SPACETIME, '2GM/c², the horizon radius of a non-rotating uncharged body of this mass.'),
+  q('outerHorizon', 'm', 'length', SPACETIME, 'Boyer–Lindquist radius of the outer (event) horizon, r+ = M + sqrt(M² - a² - Q²).'),
+  q('innerHorizon', 'm', 'length', SPACETIME, 'Boyer–Lindquist radius of the inner (Cauchy) horizon, r- = M - sqrt(M² - a² - Q²).'),
+  q('ergosurfaceEquator', 'm', 'length', SPACETIME, 'Boyer–Lindquist radius of the outer ergosurface (static limit) in the equatorial plane.'),
+  q('ergosurfacePole', 'm', 'length', SPACETIME, 'Boyer–Lindquist radius of the outer ergosurface on the spin axis (it meets the horizon there).'),
+  q('surfaceGravity', 'm/s^2', 'acceleration', SPACETIME, 'Surface gravity κ of the outer horizon.'),
+  q('hawkingTemperature', 'K', 'temperature', SPACETIME, 'Hawking temperature ħκ/(2π c k_B) of the outer horizon.'),
+  q('horizonArea', 'm^2', 'area', SPACETIME, 'Area 4π(r+² + a²) of the outer horizon.'),
+  q('horizonAngularVelocity', 'rad/s', 'angularVelocity', SPACETIME, 'Angular velocity Ω_H = a/(r+² + a²) of the outer horizon.'),
+  q('horizonElectricPotential', 'V', 'potential', SPACETIME, 'Electric potential Φ_H = Q r+/(r+² + a²) of the outer horizon (co-rotating).'),
+  q('irreducibleMass', 'kg', 'mass', SPACETIME, 'Irreducible mass sqrt(A_H/16π) (Christodoulou–Ruffini): the mass that no classical process can extract.'),
+  q('compactness', '1', 'none', SPACETIME, 'r_s/R = 2GM/(Rc²) for a body with a surface of equatorial radius R.'),
+  q('surfaceEscapeSpeed', 'm/s', 'speed', SPACETIME, 'escapeSpeed at the equatorial surface of a body with a surface.'),
+  q('surfaceClockOffset', '1', 'none', SPACETIME, 'staticClockOffset at the equatorial surface of a body with a surface (no rotation of the clock).'),
+  q('surfaceHoverAcceleration', 'm/s^2', 'acceleration', SPACETIME, 'hoverAcceleration at the equatorial surface of a body with a surface (no centrifugal part).'),
+];
+
+export const CATALOGUE_BY_NAME: ReadonlyMap<string, QuantityInfo> = new Map(CATALOGUE.map((c) => [c.name, c]));
+
+export function quantityInfo(name: string): QuantityInfo {
+  const info = CATALOGUE_BY_NAME.get(name);
+  if (!info) throw new Error(`quantity "${name}" is not in the catalogue`);
+  return info;
+}

@@ -1,0 +1,45 @@
+/**
+ * Service configuration, read from the environment once at start-up and validated. Nothing else in
+ * the code reads process.env. Every variable is documented in README.md and .env.example.
+ */
+import { z } from 'zod';
+
+const port = z.coerce.number().int().min(0).max(65_535);
+const positiveInt = z.coerce.number().int().positive();
+
+const schema = z.object({
+  PORT: port.default(8080),
+  HOST: z.string().min(1).default('0.0.0.0'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  /** Largest request body accepted, in bytes (larger: 413). */
+  BODY_LIMIT_BYTES: positiveInt.max(64 * 1024 * 1024).default(65_536),
+  /** Time allowed to receive and answer one request, ms. */
+  REQUEST_TIMEOUT_MS: positiveInt.max(600_000).default(30_000),
+  /** Time allowed for in-flight requests on shutdown, ms. */
+  SHUTDOWN_GRACE_MS: positiveInt.max(600_000).default(10_000),
+});
+
+export type Config = z.infer<typeof schema>;
+
+/** Thrown with a message that names each bad variable. */
+export class ConfigError extends Error {}
+
+/** Parses the given environment (process.env by default) into the typed configuration. */
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const picked: Record<string, string> = {};
+  for (const key of Object.keys(schema.shape)) {
+    const v = env[key];
+    if (v !== undefined && v !== '') picked[key] = v;
+  }
+  const result = schema.safeParse(picked);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `${i.path.join('.')}: ${i.message} (got "${picked[String(i.path[0])]}")`);
+    throw new ConfigError(`invalid configuration:\n  ${lines.join('\n  ')}`);
+  }
+  return result.data;
+}
+
+/** Defaults, for tests and for building the app without an environment. */
+export function defaultConfig(overrides: Partial<Config> = {}): Config {
+  return { ...loadConfig({}), ...overrides };
+}
