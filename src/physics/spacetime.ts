@@ -159,12 +159,22 @@ export function riverMetric(s: KerrNewman, p: PointFunctions): RiverMetric | nul
 }
 
 /**
- * Square of the flow speed, v² = (r² + a²) μ / A, in units of c². Not a number where μ < 0 (no river
- * there) or A ≤ 0 (the region deep inside a spinning, charged hole where g_φφ < 0).
+ * (r² + a²) μ / A: the square of the flow speed in units of c² where μ ≥ 0, and in every case
+ * 1 − α² with α the ZAMO lapse. Not a number where A ≤ 0 (deep inside a spinning, charged hole,
+ * where g_φφ < 0 and no ZAMO exists).
+ */
+function oneMinusLapseSquared(p: PointFunctions): number {
+  if (!(p.bigA > 0)) return Number.NaN;
+  return (p.rho2 * p.mu) / p.bigA;
+}
+
+/**
+ * Square of the flow speed, v² = (r² + a²) μ / A, in units of c². Not a number where μ < 0 (no
+ * observer falls from rest at infinity to there) or A ≤ 0.
  */
 export function flowSpeedSquared(p: PointFunctions): number {
-  if (p.mu < 0 || !(p.bigA > 0)) return Number.NaN;
-  return (p.rho2 * p.mu) / p.bigA;
+  if (p.mu < 0) return Number.NaN;
+  return oneMinusLapseSquared(p);
 }
 
 /** Flow speed in units of c (see the module comment); > 1 between the horizons; NaN where undefined. */
@@ -174,18 +184,19 @@ export function flowSpeed(p: PointFunctions): number {
 
 /**
  * 1 − α, with α = √(ΣΔ/A) = √(1 − v²) the lapse: the clock rate dτ/dt of the ZAMO, evaluated as
- * v²/(1 + √(1 − v²)) so the offset keeps full relative precision in weak fields. NaN where no ZAMO
- * exists (v ≥ 1, i.e. on and between the horizons) or the flow is undefined.
+ * v²/(1 + √(1 − v²)) so the offset keeps full relative precision in weak fields. Where 2r < Q² the
+ * flow does not exist but the ZAMO does, and v² < 0 there (the offset is negative). NaN where no ZAMO
+ * exists: on and between the horizons (v² ≥ 1), or where A ≤ 0.
  */
 export function zamoClockOffset(p: PointFunctions): number {
-  const v2 = flowSpeedSquared(p);
+  const v2 = oneMinusLapseSquared(p);
   if (!(v2 < 1)) return Number.NaN;
   return v2 / (1 + Math.sqrt(1 - v2));
 }
 
 /** Lapse α = dτ/dt of the ZAMO; NaN where it does not exist. */
 export function zamoClockRate(p: PointFunctions): number {
-  const v2 = flowSpeedSquared(p);
+  const v2 = oneMinusLapseSquared(p);
   if (!(v2 < 1)) return Number.NaN;
   return Math.sqrt(1 - v2);
 }
