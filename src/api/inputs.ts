@@ -272,19 +272,19 @@ export function normalizePoint(input: PointInput, body: Body, path = '/point'): 
   return { r, rGeometric, altitude, theta };
 }
 
-const queryValue = z.string().max(MAX_QUANTITY_LENGTH);
+const queryValue = (description: string) => z.string().max(MAX_QUANTITY_LENGTH).optional().meta({ description });
 
 /** Query string of the flat GET endpoints: a body and a point, each field a string. */
 export const bodyPointQuery = z
   .strictObject({
     body: presetName.optional(),
-    mass: queryValue.optional(),
-    spin: queryValue.optional(),
-    charge: queryValue.optional(),
-    radius: queryValue.optional(),
-    r: queryValue.optional(),
-    altitude: queryValue.optional(),
-    theta: queryValue.optional(),
+    mass: queryValue('Mass, e.g. "10 Msun" or kg (instead of body).'),
+    spin: queryValue('a/M (or angular momentum with a unit, e.g. "5.86e33 kg m^2/s"). Default 0.'),
+    charge: queryValue('Q/M (or coulombs with a unit, e.g. "1e20 C"). Default 0.'),
+    radius: queryValue('Radius of a body with a surface; omit for a black hole.'),
+    r: queryValue('Boyer–Lindquist radius, e.g. "6 rg", "35786 km", or m.'),
+    altitude: queryValue('Height above the equatorial surface (instead of r).'),
+    theta: queryValue('Polar angle from the spin axis, e.g. "60 deg", or rad; default the equator.'),
   })
   .meta({ id: 'BodyPointQuery' });
 export type BodyPointQuery = z.infer<typeof bodyPointQuery>;

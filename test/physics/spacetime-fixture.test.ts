@@ -89,7 +89,7 @@ describe('Kerr–Newman core against the mpmath/sympy fixture', () => {
       const bl = boyerLindquistMetric(s, p);
       const scale = Math.max(1, Math.abs(c.bl.phph ?? 0), Math.abs(c.bl.thth ?? 0));
       for (const k of ['tt', 'tphi', 'thth', 'phph'] as const) close(`bl.${k}`, bl[k], c.bl[k] ?? null, 1e-16 * scale, metricExtra);
-      if (!onHorizon && c.bl.rr !== null) close('bl.rr', bl.rr, c.bl.rr);
+      if (!onHorizon && c.bl.rr !== null) close('bl.rr', bl.rr, c.bl.rr ?? null);
 
       const river = riverMetric(s, p);
       if (c.river === null) {
