@@ -39,6 +39,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     routerOptions: { maxParamLength: 200 },
   });
 
+  // JSON only: without this, fastify's text/plain parser would hand a string to the schemas.
+  app.removeContentTypeParser('text/plain');
   app.addHook('onRequest', async (request, reply) => {
     reply.header('x-request-id', request.id);
   });

@@ -8,7 +8,7 @@ import { invalid, unphysical } from '../errors.js';
 import { ergosurfaceRadius, horizons, type KerrNewman } from '../physics/spacetime.js';
 import { C, C2, CHARGE_TO_LENGTH, G } from '../units/constants.js';
 import { PRESETS } from '../units/presets.js';
-import { MAX_QUANTITY_LENGTH, QuantityError, toLength, toSI, type Dimension } from '../units/quantity.js';
+import { isPlainNumber, MAX_QUANTITY_LENGTH, QuantityError, toLength, toSI, type Dimension } from '../units/quantity.js';
 
 /** Documented limits of the inputs. */
 export const LIMITS = {
@@ -152,25 +152,21 @@ export function normalizeBody(input: BodyInput, path = '/body'): Body {
   const rg = gm / C2;
   const tg = rg / C;
 
+  // A plain number is a/M (and Q/M); a quantity with a unit is J (and Q in coulombs).
   let spin = 0;
-  if (typeof spinIn === 'number') {
-    spin = spinIn;
-  } else if (typeof spinIn === 'string') {
-    const isNumber = !Number.isNaN(Number(spinIn.trim())) && spinIn.trim() !== '';
-    spin = isNumber
-      ? Number(spinIn)
-      : (C * read(spinIn, 'angularMomentum', `${path}/spin`) * G) / (gm * gm);
+  if (spinIn !== undefined) {
+    const unitless = isPlainNumber(spinIn);
+    spin = read(spinIn, unitless ? 'none' : 'angularMomentum', `${path}/spin`);
+    if (!unitless) spin = (C * spin * G) / (gm * gm);
   }
   if (spin < 0) {
     throw invalid(`${path}/spin`, 'spin is a magnitude (≥ 0); the orbit direction says prograde or retrograde');
   }
   let charge = 0;
-  if (typeof chargeIn === 'number') {
-    charge = chargeIn;
-  } else if (typeof chargeIn === 'string') {
-    const text = chargeIn.trim();
-    const isNumber = text !== '' && !Number.isNaN(Number(text));
-    charge = isNumber ? Number(text) : (read(text, 'charge', `${path}/charge`) * CHARGE_TO_LENGTH) / rg;
+  if (chargeIn !== undefined) {
+    const unitless = isPlainNumber(chargeIn);
+    charge = read(chargeIn, unitless ? 'none' : 'charge', `${path}/charge`);
+    if (!unitless) charge = (charge * CHARGE_TO_LENGTH) / rg;
   }
   for (const [name, v] of [['spin', spin], ['charge', charge]] as const) {
     if (!Number.isFinite(v) || Math.abs(v) > LIMITS.maxSpinOrCharge) {

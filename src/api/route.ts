@@ -66,7 +66,7 @@ function remapPaths(err: unknown, pathFor: (p: string) => string): unknown {
 
 export function registerComputeRoute<TIn, TQuery>(app: FastifyInstance, route: ComputeRoute<TIn, TQuery>): void {
   app.post(route.path, async (request: FastifyRequest, reply: FastifyReply) => {
-    const input = parseOr400(route.body, request.body ?? undefined);
+    const input = parseOr400(route.body, request.body);
     reply.type('application/json');
     return route.compute(input);
   });

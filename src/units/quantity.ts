@@ -38,6 +38,7 @@ math.createUnit('uas', { definition: '1e-6 arcsec' });
 
 /** The kinds of quantity a request may carry, each with the SI unit it is converted to. */
 export const DIMENSIONS = {
+  none: '',
   mass: 'kg',
   length: 'm',
   time: 's',
@@ -62,13 +63,20 @@ export const MAX_QUANTITY_LENGTH = 64;
 /** A quantity the client sent that cannot be read; the API maps it to a 400 with the field's path. */
 export class QuantityError extends Error {}
 
-const reference: Record<Dimension, Unit> = Object.fromEntries(
-  Object.entries(DIMENSIONS).map(([k, u]) => [k, math.unit(u)]),
-) as Record<Dimension, Unit>;
+const reference = Object.fromEntries(
+  Object.entries(DIMENSIONS)
+    .filter(([, u]) => u !== '')
+    .map(([k, u]) => [k, math.unit(u)]),
+) as Record<Exclude<Dimension, 'none'>, Unit>;
 const rgUnit = math.unit('rg');
 const tgUnit = math.unit('tg');
 
 const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+/** Whether the input is a number or a string holding only a decimal number (no unit, no hex). */
+export function isPlainNumber(input: number | string): boolean {
+  return typeof input === 'number' || PLAIN_NUMBER.test(input.trim());
+}
 
 interface Parsed {
   unit: Unit;
@@ -146,6 +154,7 @@ export function toSI(input: number | string, dimension: Dimension, scale?: BodyS
     if (PLAIN_NUMBER.test(text)) {
       value = Number(text);
     } else {
+      if (dimension === 'none') throw new QuantityError(`"${text}" must be a plain number here`);
       const { unit, bodyScale } = parseUnitString(text);
       if (bodyScale !== null) {
         const wanted = bodyScale === 'rg' ? 'length' : 'time';
@@ -154,7 +163,7 @@ export function toSI(input: number | string, dimension: Dimension, scale?: BodyS
         }
         if (!scale) throw new QuantityError(`"${text}" needs the body's mass to be known`);
         value = unit.toNumber(bodyScale) * scale[bodyScale];
-      } else if (unit.equalBase(reference[dimension])) {
+      } else if (unit.equalBase(reference[dimension as Exclude<Dimension, 'none'>])) {
         value = unit.toNumber(DIMENSIONS[dimension]);
       } else {
         throw new QuantityError(

@@ -1,0 +1,14 @@
+/**
+ * Context rival: a bare fastify route returning a precomputed copy of the /v1/local response that
+ * local-get.ts asks for, at the same path and query string (same bytes, no computation).
+ */
+import type { BenchCase } from '../harness.js';
+import localGet from './local-get.js';
+
+const barePayload: BenchCase = {
+  name: 'bare fastify, same payload',
+  target: 'barePayload',
+  method: 'GET',
+  path: localGet.path,
+};
+export default barePayload;

@@ -1,0 +1,10 @@
+/** GET /v1/local for the Earth preset at 400 km altitude (a body with a surface). */
+import type { BenchCase } from '../harness.js';
+
+const localEarth: BenchCase = {
+  name: 'GET /v1/local (earth, 400 km)',
+  target: 'service',
+  method: 'GET',
+  path: '/v1/local?body=earth&altitude=400%20km',
+};
+export default localEarth;

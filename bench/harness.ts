@@ -1,0 +1,183 @@
+/**
+ * What every benchmark case shares: starting a server as a child process on a free loopback port,
+ * stopping it (always, also on errors and signals), and one autocannon measurement.
+ *
+ * Servers and the load generator run in different processes, so on a small machine they take
+ * different cores. Traffic goes to 127.0.0.1 only.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createServer } from 'node:net';
+import autocannon from 'autocannon';
+
+export const HOST = '127.0.0.1';
+export const CONNECTIONS = 50;
+
+/** Which server a case runs against. */
+export type Target = 'bareTiny' | 'barePayload' | 'service';
+
+/** One benchmark case: a request repeated by every connection. */
+export interface BenchCase {
+  name: string;
+  target: Target;
+  method: 'GET' | 'POST';
+  /** Path with query string. */
+  path: string;
+  body?: string;
+  headers?: Record<string, string>;
+}
+
+export interface Measurement {
+  requestsPerSecond: number;
+  /** Latency percentiles of 2xx responses, ms, from per-response timings (autocannon's own are whole ms). */
+  p50: number;
+  p99: number;
+  /** Connection errors and timeouts. */
+  errors: number;
+  non2xx: number;
+}
+
+export interface Server {
+  name: string;
+  url: string;
+  stop: () => Promise<void>;
+}
+
+const children = new Set<ChildProcess>();
+const running = new Set<Server>();
+const TAIL_CHARS = 4000;
+const READY_ATTEMPTS = 150;
+const READY_INTERVAL_MS = 100;
+const STOP_GRACE_MS = 5000;
+
+const sleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms));
+
+/** Kills every child still running; installed once for exit, signals and crashes. */
+export function installCleanup(): void {
+  const killAll = () => {
+    for (const child of children) child.kill('SIGKILL');
+    children.clear();
+  };
+  process.on('exit', killAll);
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+    process.on(signal, () => {
+      killAll();
+      process.exit(130);
+    });
+  }
+}
+
+/** A port the OS reports free on 127.0.0.1 (closed again before the child binds it). */
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer();
+    probe.once('error', reject);
+    probe.listen(0, HOST, () => {
+      const address = probe.address();
+      const port = typeof address === 'object' && address ? address.port : 0;
+      probe.close(() => (port > 0 ? resolve(port) : reject(new Error('no free port'))));
+    });
+  });
+}
+
+/**
+ * Starts `node <args>` as a child process and resolves once GET `readyPath` answers 200. `args` may
+ * use the placeholder "{port}" for the port chosen here; `env` is added to the current environment.
+ */
+export async function startServer(
+  name: string,
+  args: string[],
+  options: { env?: Record<string, string>; readyPath: string; cwd: string },
+): Promise<Server> {
+  const port = await freePort();
+  const child = spawn(process.execPath, args.map((a) => a.replace('{port}', String(port))), {
+    cwd: options.cwd,
+    env: { ...process.env, ...options.env, PORT: String(port) },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  children.add(child);
+  let tail = '';
+  const keep = (chunk: Buffer) => {
+    tail = (tail + chunk.toString('utf8')).slice(-TAIL_CHARS);
+  };
+  child.stdout?.on('data', keep);
+  child.stderr?.on('data', keep);
+  let exited = false;
+  child.once('exit', () => {
+    exited = true;
+    children.delete(child);
+  });
+
+  const url = `http://${HOST}:${port}`;
+  const stop = async () => {
+    if (exited) return;
+    const gone = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+    child.kill('SIGTERM');
+    const timer = setTimeout(() => child.kill('SIGKILL'), STOP_GRACE_MS);
+    await gone;
+    clearTimeout(timer);
+  };
+
+  const server: Server = { name, url, stop };
+  running.add(server);
+  child.once('exit', () => running.delete(server));
+  for (let attempt = 0; attempt < READY_ATTEMPTS && !exited; attempt++) {
+    try {
+      const res = await fetch(url + options.readyPath, { signal: AbortSignal.timeout(1000) });
+      await res.arrayBuffer();
+      if (res.status === 200) return server;
+    } catch {
+      // not listening yet
+    }
+    await sleep(READY_INTERVAL_MS);
+  }
+  await stop();
+  throw new Error(`${name} did not become ready on ${url}${options.readyPath}; its output ended with:\n${tail}`);
+}
+
+/** Stops every server started here that is still running (their pipes would keep this process alive). */
+export async function stopAll(): Promise<void> {
+  await Promise.all([...running].map((s) => s.stop()));
+}
+
+function percentile(sorted: Float64Array, q: number): number {
+  if (sorted.length === 0) return Number.NaN;
+  const index = Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1);
+  return sorted[Math.max(0, index)] ?? Number.NaN;
+}
+
+/** Runs autocannon against `server` with a warm-up first; `seconds` is the measured duration. */
+export async function measure(server: Server, c: BenchCase, seconds: number, warmupSeconds: number): Promise<Measurement> {
+  // Per-response times (ms, sub-ms resolution), 2xx only as in autocannon's own histogram.
+  // Capacity is bounded; past it the sample is the first `capacity` responses.
+  const capacity = Math.min(20_000_000, Math.max(100_000, 200_000 * seconds));
+  let times = new Float64Array(Math.min(capacity, 1_000_000));
+  let count = 0;
+  const instance = autocannon({
+    url: server.url + c.path,
+    connections: CONNECTIONS,
+    duration: seconds,
+    timeout: 10,
+    method: c.method,
+    ...(c.body !== undefined ? { body: c.body } : {}),
+    ...(c.headers ? { headers: c.headers } : {}),
+    warmup: { connections: CONNECTIONS, duration: warmupSeconds },
+  });
+  instance.on('response', (_client: unknown, statusCode: number, _bytes: number, responseTime: number) => {
+    if (statusCode < 200 || statusCode > 299 || count >= capacity) return;
+    if (count === times.length) {
+      const grown = new Float64Array(Math.min(capacity, times.length * 2));
+      grown.set(times);
+      times = grown;
+    }
+    times[count++] = responseTime;
+  });
+  const result = await instance;
+  const sorted = times.subarray(0, count).sort();
+  return {
+    requestsPerSecond: result.requests.total / result.duration,
+    p50: percentile(sorted, 0.5),
+    p99: percentile(sorted, 0.99),
+    errors: result.errors,
+    non2xx: result.non2xx,
+  };
+}
