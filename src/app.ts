@@ -41,8 +41,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
 
   // JSON only: without this, fastify's text/plain parser would hand a string to the schemas.
   app.removeContentTypeParser('text/plain');
-  app.addHook('onRequest', async (request, reply) => {
+  app.addHook('onRequest', (request, reply, done) => {
     reply.header('x-request-id', request.id);
+    done();
   });
   installErrorHandling(app);
 

@@ -61,6 +61,9 @@ export type LocalResponse = z.infer<typeof localResponse>;
 const finiteOrNull = (o: object): Record<string, number | null> =>
   Object.fromEntries(Object.entries(o).map(([k, v]) => [k, Number.isFinite(v) ? (v as number) : null]));
 
+const LOCAL_NOTE =
+  'Rates are dτ/dt against far-away time, offsets 1 − rate without cancellation; flowSpeed is measured by the local ZAMO.';
+
 export function computeLocal(input: LocalRequest): LocalResponse {
   const body = normalizeBody(input.body);
   const point = normalizePoint(input.point, body);
@@ -69,11 +72,7 @@ export function computeLocal(input: LocalRequest): LocalResponse {
     LOCAL_QUANTITIES.map((n) => [n, toQuantity(n, local.values[n], body, local.reasons[n])]),
   );
   const notes = bodyNotes(body);
-  notes.push(
-    'Clock rates are dτ/dt against the coordinate time t, the proper time of a clock at rest far away; offsets are 1 − rate, computed without cancellation.',
-    'flowSpeed is the speed of the inward flow of space (observers falling from rest at infinity) measured by the local zero-angular-momentum observer (ZAMO).',
-    CAUTION,
-  );
+  notes.push(LOCAL_NOTE, CAUTION);
   return {
     service,
     body: bodyEcho(body),

@@ -90,21 +90,21 @@ export function pointEcho(p: Point, region: z.infer<typeof pointEchoSchema>['reg
 export const service = { name: SERVICE_NAME, version: VERSION } as const;
 
 export const CAUTION =
-  'Validated physics, not a certified timing or navigation product: for navigation, legal time or safety-related timing defer to the applicable standards (IERS Conventions, IAU resolutions, ITU-R TF recommendations) and licensed practice.';
+  'Validated physics, not a certified timing or navigation product: for navigation, legal time or safety-related timing defer to the applicable standards (IERS, IAU, ITU-R TF) and licensed practice.';
 
-/** Notes that every response about this body carries. */
+const COORDINATES = 'r is the Boyer–Lindquist radius; θ the polar angle from the spin axis.';
+const EXTERIOR =
+  'Outside a body: the vacuum exterior with its mass, spin and charge only (no quadrupole — the Earth\'s J2 is ~0.1% of g — no interior).';
+const OVERSPUN = 'spin² + charge² > 1: no horizon; the exterior holds only outside the body.';
+const PRESET_NOTES = Object.fromEntries(
+  Object.values(PRESETS).map((p) => [p.name, `Preset ${p.name}: ${p.sources.join('; ')}.`]),
+) as Record<keyof typeof PRESETS, string>;
+
+/** Notes that every response about this body carries (short: they travel with every response). */
 export function bodyNotes(b: Body): string[] {
-  const notes = [
-    'Coordinates are Boyer–Lindquist (t, r, θ, φ); r is the Boyer–Lindquist radius, θ the polar angle from the spin axis.',
-  ];
-  if (b.radius !== null) {
-    notes.push(
-      'The field outside the body is the vacuum exterior of the same Kerr–Newman family (mass, spin and charge only): no quadrupole or higher multipoles (for the Earth, J2 changes local gravity by ~0.1%), no tides from other bodies, no interior solution.',
-    );
-  }
-  if (b.spacetime.a * b.spacetime.a + b.spacetime.q * b.spacetime.q > 1) {
-    notes.push('spin² + charge² > 1: there is no horizon; the exterior is valid only outside the body.');
-  }
-  if (b.preset) notes.push(...PRESETS[b.preset].sources.map((s) => `Preset ${b.preset}: ${s}.`));
+  const notes = [COORDINATES];
+  if (b.radius !== null) notes.push(EXTERIOR);
+  if (b.spacetime.a * b.spacetime.a + b.spacetime.q * b.spacetime.q > 1) notes.push(OVERSPUN);
+  if (b.preset) notes.push(PRESET_NOTES[b.preset]);
   return notes;
 }

@@ -64,15 +64,24 @@ function remapPaths(err: unknown, pathFor: (p: string) => string): unknown {
   return err;
 }
 
+/**
+ * JSON Schema of the success response, handed to fastify so that fast-json-stringify serialises it
+ * (about twice as fast as JSON.stringify for these documents); it also drops anything undeclared.
+ */
+function responseSchema(route: ComputeRoute<unknown, unknown>): Record<string, unknown> {
+  return z.toJSONSchema(route.response, { target: 'draft-7', io: 'output', unrepresentable: 'any' }) as Record<string, unknown>;
+}
+
 export function registerComputeRoute<TIn, TQuery>(app: FastifyInstance, route: ComputeRoute<TIn, TQuery>): void {
-  app.post(route.path, async (request: FastifyRequest, reply: FastifyReply) => {
+  const schema = { response: { 200: responseSchema(route as ComputeRoute<unknown, unknown>) } };
+  app.post(route.path, { schema }, async (request: FastifyRequest, reply: FastifyReply) => {
     const input = parseOr400(route.body, request.body);
     reply.type('application/json');
     return route.compute(input);
   });
   const get = route.get;
   if (get) {
-    app.get(route.path, async (request: FastifyRequest, reply: FastifyReply) => {
+    app.get(route.path, { schema }, async (request: FastifyRequest, reply: FastifyReply) => {
       try {
         const query = parseOr400(get.query, request.query ?? {});
         const input = get.toInput(query);

@@ -41,6 +41,8 @@ export interface QuadratureOptions {
   relativeTolerance?: number;
   /** ... or when |S_k − S_{k−1}| ≤ absoluteTolerance (default 0). */
   absoluteTolerance?: number;
+  /** Vector form only: per-component absolute tolerances (overriding absoluteTolerance where given). */
+  absoluteTolerances?: ArrayLike<number>;
   /** Highest level (step 2^−maxLevel); default 12, at most 16. */
   maxLevel?: number;
   /** Lowest level at which convergence may be declared (guards against chance agreement); default 3. */
@@ -239,7 +241,8 @@ export function tanhSinhVector(
       const err = k === 0 ? Number.POSITIVE_INFINITY : Math.abs(value - (prev[i] as number));
       values[i] = value;
       errors[i] = err;
-      const ok = k >= minLevel && (err <= rtol * Math.abs(value) || err <= atol);
+      const atolI = options.absoluteTolerances?.[i] ?? atol;
+      const ok = k >= minLevel && (err <= rtol * Math.abs(value) || err <= atolI);
       convergedEach[i] = ok;
       if (!ok) all = false;
       prev[i] = value;

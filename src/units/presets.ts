@@ -37,19 +37,13 @@ export const PRESETS: Record<Preset['name'], Preset> = {
     gm: GM_SUN,
     radius: R_SUN,
     angularMomentum: J_SUN,
-    sources: [
-      'GM and radius: IAU 2015 Resolution B3 nominal solar values (GM = 1.3271244e20 m^3/s^2, R = 6.957e8 m)',
-      'angular momentum 1.92e41 kg m^2/s from helioseismology (Pijpers 1998)',
-    ],
+    sources: ['GM 1.3271244e20 m^3/s^2 and R 6.957e8 m (IAU 2015 B3 nominal)', 'J 1.92e41 kg m^2/s (helioseismology, Pijpers 1998)'],
   },
   earth: {
     name: 'earth',
     gm: GM_EARTH,
     radius: R_EARTH_WGS84,
     angularMomentum: J_EARTH,
-    sources: [
-      'GM = 3.986004418e14 m^3/s^2 (IERS Conventions 2010); equatorial radius 6378137 m (WGS84)',
-      'angular momentum C·ω with C/(M a^2) = 0.3307007 (Groten 2004) and ω = 7.292115e-5 rad/s (IERS 2010)',
-    ],
+    sources: ['GM 3.986004418e14 m^3/s^2 (IERS 2010)', 'R 6378137 m (WGS84)', 'J = Cω, C/(Ma²) 0.3307007 (Groten 2004), ω 7.292115e-5 rad/s (IERS 2010)'],
   },
 };

@@ -78,13 +78,18 @@ export function isPlainNumber(input: number | string): boolean {
   return typeof input === 'number' || PLAIN_NUMBER.test(input.trim());
 }
 
+/** A parsed quantity string, with its conversions done once (strings recur across requests). */
 interface Parsed {
-  unit: Unit;
   /** 'rg' or 'tg' when the unit is one of the body's scales, else null. */
   bodyScale: 'rg' | 'tg' | null;
+  /** The number in units of rg or tg, when bodyScale is set. */
+  scaled: number;
+  /** The dimension the unit belongs to (null if none of ours), and the value in its SI unit. */
+  dimension: Exclude<Dimension, 'none'> | null;
+  si: number;
 }
 
-// Parsed strings are memoised: parsing takes ~10 µs and the same spellings recur across requests.
+// Parsing takes ~10 µs with mathjs; the memo keeps requests off that path for repeated spellings.
 const memo = new Map<string, Parsed>();
 const MEMO_LIMIT = 2048;
 
@@ -98,8 +103,20 @@ function parseUnitString(text: string): Parsed {
     throw new QuantityError(`cannot read "${text}" as a number with a unit: ${(err as Error).message}`);
   }
   if (unit.value === null) throw new QuantityError(`"${text}" has a unit but no number`);
-  const bodyScale = unit.equalBase(rgUnit) ? 'rg' : unit.equalBase(tgUnit) ? 'tg' : null;
-  const parsed = { unit, bodyScale } as Parsed;
+  const parsed: Parsed = { bodyScale: null, scaled: Number.NaN, dimension: null, si: Number.NaN };
+  if (unit.equalBase(rgUnit)) parsed.bodyScale = 'rg';
+  else if (unit.equalBase(tgUnit)) parsed.bodyScale = 'tg';
+  if (parsed.bodyScale) {
+    parsed.scaled = unit.toNumber(parsed.bodyScale);
+  } else {
+    for (const [dim, ref] of Object.entries(reference) as [Exclude<Dimension, 'none'>, Unit][]) {
+      if (unit.equalBase(ref)) {
+        parsed.dimension = dim;
+        parsed.si = unit.toNumber(DIMENSIONS[dim]);
+        break;
+      }
+    }
+  }
   if (memo.size >= MEMO_LIMIT) memo.clear();
   memo.set(text, parsed);
   return parsed;
@@ -125,9 +142,9 @@ export function toLength(input: number | string, scale: BodyScale): { si: number
   if (typeof input === 'string') {
     const text = input.trim();
     if (text.length > 0 && text.length <= MAX_QUANTITY_LENGTH && !PLAIN_NUMBER.test(text)) {
-      const { unit, bodyScale } = parseUnitString(text);
+      const { bodyScale, scaled } = parseUnitString(text);
       if (bodyScale === 'rg') {
-        const geometric = unit.toNumber('rg');
+        const geometric = scaled;
         if (!Number.isFinite(geometric)) throw new QuantityError('the value is not a finite number');
         return { si: geometric * scale.rg, geometric };
       }
@@ -155,16 +172,17 @@ export function toSI(input: number | string, dimension: Dimension, scale?: BodyS
       value = Number(text);
     } else {
       if (dimension === 'none') throw new QuantityError(`"${text}" must be a plain number here`);
-      const { unit, bodyScale } = parseUnitString(text);
+      const parsed = parseUnitString(text);
+      const { bodyScale } = parsed;
       if (bodyScale !== null) {
         const wanted = bodyScale === 'rg' ? 'length' : 'time';
         if (dimension !== wanted) {
           throw new QuantityError(`"${text}" is a ${wanted}, but a ${dimension} is expected here`);
         }
         if (!scale) throw new QuantityError(`"${text}" needs the body's mass to be known`);
-        value = unit.toNumber(bodyScale) * scale[bodyScale];
-      } else if (unit.equalBase(reference[dimension as Exclude<Dimension, 'none'>])) {
-        value = unit.toNumber(DIMENSIONS[dimension]);
+        value = parsed.scaled * scale[bodyScale];
+      } else if (parsed.dimension === dimension) {
+        value = parsed.si;
       } else {
         throw new QuantityError(
           `"${text}" is not a ${dimension} (expected a unit convertible to ${DIMENSIONS[dimension]})`,
