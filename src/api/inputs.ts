@@ -60,6 +60,9 @@ export const pointInput = z
     theta: quantityInput
       .optional()
       .meta({ description: 'Polar angle from the spin axis, rad or e.g. "60 deg"; default π/2 (equator).' }),
+    latitude: quantityInput.optional().meta({
+      description: 'Latitude from the equatorial plane, −90° to 90° (instead of theta): θ = 90° − latitude.',
+    }),
   })
   .meta({ id: 'Point' });
 
@@ -82,6 +85,8 @@ export interface Body extends BodyScales {
   angularMomentum: number;
   /** Equatorial radius in m, or null for a black hole. */
   radius: number | null;
+  /** Rotation rate of the surface, rad/s, when the preset defines one (the Earth), else null. */
+  rotationRate: number | null;
   /** radius / rg, or null. */
   radiusGeometric: number | null;
   family: Family;
@@ -211,6 +216,7 @@ export function normalizeBody(input: BodyInput, path = '/body'): Body {
     angularMomentum: (spin * gm * gm) / (C * G),
     radius,
     radiusGeometric,
+    rotationRate: preset ? PRESETS[preset].rotationRate : null,
     family: familyOf(spin, charge),
     spacetime,
   };
@@ -228,6 +234,16 @@ function nakedSingularity(path: string, spin: number, charge: number) {
 export function normalizePoint(input: PointInput, body: Body, path = '/point'): Point {
   const scale = { rg: body.rg, tg: body.tg };
   let theta = Math.PI / 2;
+  if (input.theta !== undefined && input.latitude !== undefined) {
+    throw invalid(path, 'give either theta or latitude, not both');
+  }
+  if (input.latitude !== undefined) {
+    const latitude = read(input.latitude, 'angle', `${path}/latitude`);
+    if (latitude < -Math.PI / 2 || latitude > Math.PI / 2) {
+      throw unphysical(`${path}/latitude`, 'latitude must lie in [−90°, 90°]');
+    }
+    theta = Math.PI / 2 - latitude;
+  }
   if (input.theta !== undefined) {
     theta = read(input.theta, 'angle', `${path}/theta`);
     if (theta < 0 || theta > Math.PI) {
@@ -281,6 +297,7 @@ export const bodyPointQuery = z
     r: queryValue('Boyer–Lindquist radius, e.g. "6 rg", "35786 km", or m.'),
     altitude: queryValue('Height above the equatorial surface (instead of r).'),
     theta: queryValue('Polar angle from the spin axis, e.g. "60 deg", or rad; default the equator.'),
+    latitude: queryValue('Latitude, e.g. "40 deg" (instead of theta).'),
   })
   .meta({ id: 'BodyPointQuery' });
 export type BodyPointQuery = z.infer<typeof bodyPointQuery>;
@@ -303,6 +320,7 @@ export function bodyPointFromQuery(q: BodyPointQuery): { body: BodyInput; point:
   if (q.r !== undefined) point.r = q.r;
   if (q.altitude !== undefined) point.altitude = q.altitude;
   if (q.theta !== undefined) point.theta = q.theta;
+  if (q.latitude !== undefined) point.latitude = q.latitude;
   return { body, point };
 }
 

@@ -1,9 +1,10 @@
 /**
  * Every compute route, in one list, for the app and the OpenAPI document.
  */
+import { clocksRoute } from './clocks.js';
 import { localRoute } from './local.js';
 import type { ComputeRoute } from './route.js';
 import { spacetimeRoute } from './spacetime.js';
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute];
+export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute, clocksRoute];

@@ -211,22 +211,32 @@ interface Path {
 }
 
 /**
- * ρ²W (axis) or R (equator) at r, with d = r₁ − r given with full precision: the start form near r₁,
- * the polynomial form elsewhere (see the module comment). `nearStart` picks the form.
+ * ρ²W (axis) or R (equator) at r, with d = r₁ − r given with full precision. Both the start form and
+ * the polynomial form are evaluated and the one whose terms are smaller in magnitude (less
+ * cancellation) is returned: the start form is exact at r₁ and wherever its two terms have one sign;
+ * the polynomial form is exact at a second turning point that it has exactly (E = 1 and Q = 0 on the
+ * Kerr axis at r = 0, for instance).
  */
-function potential(p: Path, r: number, d: number, nearStart: boolean): number {
+function potential(p: Path, r: number, d: number): number {
   const rho2 = r * r + p.a2;
   const mu = 2 * r - p.q2;
+  let x: number; // ρ² (axis) or A (equator)
+  let y: number; // 1 (axis) or ρ² (equator)
+  let k: number; // the bracket of the start form, over ρ₁² or A₁
   if (p.equator) {
-    const bigA = rho2 * r * r + p.a2 * mu;
-    if (nearStart) {
-      const g = rho2 * p.rho1sq * (2 * r * p.r1 - p.q2 * (r + p.r1)) - p.a2 * mu * p.mu1 * (r + p.r1);
-      return bigA * p.eps + (d * g) / p.bigA1;
-    }
-    return p.e2m1 * bigA + mu * rho2;
+    x = rho2 * r * r + p.a2 * mu;
+    y = rho2;
+    k = (rho2 * p.rho1sq * (2 * r * p.r1 - p.q2 * (r + p.r1)) - p.a2 * mu * p.mu1 * (r + p.r1)) / p.bigA1;
+  } else {
+    x = rho2;
+    y = 1;
+    k = (2 * r * p.r1 - 2 * p.a2 - p.q2 * (r + p.r1)) / p.rho1sq;
   }
-  if (nearStart) return p.eps * rho2 + (d * (2 * r * p.r1 - 2 * p.a2 - p.q2 * (r + p.r1))) / p.rho1sq;
-  return p.e2m1 * rho2 + mu;
+  const s1 = x * p.eps;
+  const s2 = d * k;
+  const p1 = p.e2m1 * x;
+  const p2 = mu * y;
+  return Math.abs(s1) + Math.abs(s2) <= Math.abs(p1) + Math.abs(p2) ? s1 + s2 : p1 + p2;
 }
 
 /**
@@ -367,8 +377,7 @@ export function freeFall(s: KerrNewman, req: FreeFallRequest, options: FreeFallO
   const lo = Math.min(r1, r2);
   const hi = Math.max(r1, r2);
   const loMinusRPlus = lo - rPlus;
-  const span = hi - lo;
-  const f = integrand(path, inward, span, wantRiver, wantFar, subtractPole, residue, rPlus, rMinus, loMinusRPlus, h !== null);
+  const f = integrand(path, inward, wantRiver, wantFar, subtractPole, residue, rPlus, rMinus, loMinusRPlus, h !== null);
   // t = (remainder) + C ln((hi − r₊)/(lo − r₊)): the remainder needs accuracy relative to t, not to itself.
   const logPart = subtractPole ? residue * Math.log((hi - rPlus) / loMinusRPlus) : 0;
   const q = tanhSinhVector(f, lo, hi, 3, {
@@ -414,7 +423,6 @@ export function freeFall(s: KerrNewman, req: FreeFallRequest, options: FreeFallO
 function integrand(
   p: Path,
   inward: boolean,
-  span: number,
   wantRiver: boolean,
   wantFar: boolean,
   subtractPole: boolean,
@@ -426,12 +434,10 @@ function integrand(
 ): VectorIntegrand {
   const { equator, a2, q2, energy } = p;
   const e2 = energy * energy;
-  const halfSpan = span / 2;
   return (r, toLower, toUpper, out) => {
     // Signed d = r₁ − r from the distance to the end at r₁ (upper end when inward).
-    const dist1 = inward ? toUpper : toLower;
     const d = inward ? toUpper : -toLower;
-    const pot = potential(p, r, d, dist1 <= halfSpan);
+    const pot = potential(p, r, d);
     if (!(pot > 0)) {
       // Only within rounding of an end that is a turning point (the path was checked beforehand):
       // the node's weight there is negligible.
@@ -484,7 +490,7 @@ function integrand(
 function findTurningPoint(p: Path, r1: number, r2: number): number | null {
   const n = 128;
   const span = r2 - r1;
-  const value = (r: number) => potential(p, r, r1 - r, Math.abs(r1 - r) <= Math.abs(span) / 2);
+  const value = (r: number) => potential(p, r, r1 - r);
   // Size of the terms that make up the potential: its rounding error is a few ulp of this.
   const scale = (r: number) => {
     const rho2 = r * r + p.a2;
@@ -526,7 +532,8 @@ function schwarzschildClosedForm(
   if (kind === 'restAtInfinity') {
     const tau = riverFrameProperTime(r1, r2);
     // t = T − h(r), h = 4u + 2 ln|(u − 1)/(u + 1)|: Δt = τ + 4(u₁ − u₂) + 2 ln[(u₁−1)(u₂+1)/((u₁+1)(u₂−1))].
-    const far = r2 > 2 ? tau + 4 * du + 2 * Math.log1p((2 * du) / ((u1 + 1) * (u2 - 1))) : Number.NaN;
+    // u₂ − 1 = (r₂ − 2)/(2(u₂ + 1)) keeps its precision close to the horizon.
+    const far = r2 > 2 ? tau + 4 * du + 2 * Math.log1p((4 * du * (u2 + 1)) / ((u1 + 1) * (r2 - 2))) : Number.NaN;
     return { tau, river: tau, far };
   }
   if (kind === 'rest' && energy >= 0) {
@@ -572,7 +579,13 @@ export function schwarzschildDropFromRest(
   if (!(r1 > 2)) return { properTime: tau, farAwayTime: null, riverTime: null };
   const k = Math.sqrt((r1 - 2) / 2);
   const cyc = 2 * k * (eta + (r1 / 4) * (eta + sinEtaSafe));
-  const far = r2 > 2 ? 4 * Math.atanh(tanHalf / k) + cyc : null;
+  // 2 ln((k + tan)/(k − tan)) = 4 artanh(tan/k); near the horizon tan/k → 1 and k − tan is formed
+  // exactly as r₁(r₂ − 2)/(2r₂(k + tan)), so the logarithm is 2 ln(2r₂(k + tan)²/(r₁(r₂ − 2))).
+  const z = tanHalf / k;
+  const far =
+    r2 > 2
+      ? (z < 0.5 ? 4 * Math.atanh(z) : 2 * Math.log((2 * r2 * (k + tanHalf) * (k + tanHalf)) / (r1 * (r2 - 2)))) + cyc
+      : null;
   const u1 = Math.sqrt(r1 / 2);
   const u2 = Math.sqrt(r2 / 2);
   const du = (r1 - r2) / 2 / (u1 + u2);

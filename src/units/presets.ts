@@ -19,6 +19,8 @@ export interface Preset {
   radius: number;
   /** Angular momentum J, kg m^2 s^-1. */
   angularMomentum: number;
+  /** Rotation rate of the surface, rad s^-1, where one rate describes it (null for the Sun's differential rotation). */
+  rotationRate: number | null;
   sources: string[];
 }
 
@@ -37,6 +39,7 @@ export const PRESETS: Record<Preset['name'], Preset> = {
     gm: GM_SUN,
     radius: R_SUN,
     angularMomentum: J_SUN,
+    rotationRate: null,
     sources: ['GM 1.3271244e20 m^3/s^2 and R 6.957e8 m (IAU 2015 B3 nominal)', 'J 1.92e41 kg m^2/s (helioseismology, Pijpers 1998)'],
   },
   earth: {
@@ -44,6 +47,7 @@ export const PRESETS: Record<Preset['name'], Preset> = {
     gm: GM_EARTH,
     radius: R_EARTH_WGS84,
     angularMomentum: J_EARTH,
+    rotationRate: OMEGA_EARTH,
     sources: ['GM 3.986004418e14 m^3/s^2 (IERS 2010)', 'R 6378137 m (WGS84)', 'J = Cω, C/(Ma²) 0.3307007 (Groten 2004), ω 7.292115e-5 rad/s (IERS 2010)'],
   },
 };

@@ -46,6 +46,7 @@ export const DIMENSIONS = {
   speed: 'm/s',
   charge: 'C',
   angularMomentum: 'kg m^2/s',
+  angularVelocity: 'rad/s',
 } as const;
 export type Dimension = keyof typeof DIMENSIONS;
 
