@@ -181,13 +181,24 @@ export function stationaryObserver(s: KerrNewman, spec: ObserverSpec): ObserverR
   const x = p.mu / p.sigma;
   const asin2 = s.a * p.sin2;
   const drag = 1 - omega * asin2;
-  const y = x * drag * drag + omega * omega * p.rho2 * p.sin2;
-  if (!(y < 1)) {
+  let y = x * drag * drag + omega * omega * p.rho2 * p.sin2;
+  let n = 1 - y;
+  if (spec.kind === 'circular' && y > 0.5) {
+    // Near the photon orbit N → 0 and 1 − y cancels; the orbit has the product form
+    // N = r² (r² − 3r + 2Q² ± 2a√(r − Q²))/(r² ± a√(r − Q²))², whose zero is the photon orbit and
+    // whose factor r(r − 3) is exact near r = 3 (sympy-checked in the fixture script).
+    const sign = spec.direction === 'prograde' ? 1 : -1;
+    const sq = Math.sqrt(r - s.q * s.q);
+    const den = r * r + sign * s.a * sq;
+    n = (r * r * (r * (r - 3) + 2 * s.q * s.q + 2 * sign * s.a * sq)) / (den * den);
+    y = 1 - n;
+  }
+  if (!(n > 0)) {
     const reason: ObserverAbsenceReason =
       kind === 'circular' ? 'insidePhotonOrbit' : kind === 'zamo' ? 'noZamo' : kind === 'static' ? 'ergoregion' : 'fasterThanLight';
     return absent(kind, reason);
   }
-  const rate = Math.sqrt(1 - y);
+  const rate = Math.sqrt(n);
   const ut = 1 / rate;
   const minusGtt = 1 - x;
   const gtphi = -asin2 * x;
@@ -226,10 +237,11 @@ export function stationaryObserver(s: KerrNewman, spec: ObserverSpec): ObserverR
     angularVelocity: omega,
     rate,
     offset: y / (1 + rate),
-    logRate: 0.5 * Math.log1p(-y),
+    logRate: y < 0.5 ? 0.5 * Math.log1p(-y) : 0.5 * Math.log(n),
     fourVelocity: { t: ut, phi: omega * ut },
     energy: ut * eFactor,
-    angularMomentum: ut * (gtphi + omega * gphph),
+    // A ZAMO has L = 0 by definition (the formula would leave rounding noise of g_tφ + ω g_φφ).
+    angularMomentum: kind === 'zamo' ? 0 : ut * (gtphi + omega * gphph),
     velocityRelativeToZamo: vZamo,
     velocityRelativeToStatic: vStatic,
     lorentzFactorStatic: gammaS,

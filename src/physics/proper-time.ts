@@ -5,21 +5,21 @@
  * Free fall with zero angular momentum (L = 0) is computed where it stays in one plane of motion:
  * any θ when a = 0 (Schwarzschild, Reissner–Nordström), the rotation axis (θ = 0 or π) and the
  * equator (θ = π/2) when a ≠ 0. With E = −u_t the energy per unit mass (Carter 1968, Phys. Rev. 174,
- * 1559; Misner, Thorne & Wheeler 1973, Gravitation, §33.5):
+ * 1559; Misner, Thorne & Wheeler 1973, Gravitation, ch. 33):
  *   axis, or a = 0 (ρ² = r² + a² on the axis, r² when a = 0):
  *     (dr/dτ)² = W = E² − Δ/ρ²,  dt/dτ = E ρ²/Δ,
  *   equator:  (r² dr/dτ)² = R = E²(r² + a²)² − Δ(r² + a²E²),  dt/dτ = E A/(Δ r²).
- * In both, ρ²W (resp. R) = (E² − 1)X + μ ρ² / X with X = ρ² (axis) or A (equator) — the "polynomial
- * form", exact where E = 1 — and, with ε = E² − α₁² (α₁ the ZAMO lapse at the start r₁),
+ * Rearranged, ρ²W = (E² − 1)ρ² + μ (axis) and R = (E² − 1)A + μρ² (equator) — the "polynomial form",
+ * exact where E = 1 — and, with ε = E² − α₁² (α₁ the ZAMO lapse at the start r₁),
  *   ρ²W = ε ρ² + (r₁ − r)[2 r r₁ − 2a² − Q²(r + r₁)]/ρ₁²                               (axis; a → 0),
  *   R   = ε A + (r₁ − r)[ρ²ρ₁²(2 r r₁ − Q²(r + r₁)) − a² μ μ₁ (r + r₁)]/A₁               (equator),
  * the "start form", exact at a turning point r₁ (ε = 0) because r₁ − r comes from the quadrature with
- * full precision. Each node uses the form that is exact at its nearer end. Both were derived by hand
- * and are verified with sympy in test/fixtures/python/proper_time.py.
+ * full precision. Each node uses the form whose terms cancel less. Both were derived by hand and are
+ * verified with sympy in test/fixtures/python/proper_time.py.
  *
  * River time T (the Gullstrand–Painlevé / Doran time, dT = dt + √((r² + a²)μ)/Δ dr; Painlevé 1921,
  * C. R. Acad. Sci. 173, 677; Gullstrand 1922, Ark. Mat. Astr. Fys. 16(8); Doran 2000, Phys. Rev. D
- * 61, 067503) along an inward path, in forms regular across the horizons (derived by multiplying
+ * 61, 067503; bibliographic details from memory) along an inward path, in forms regular across the horizons (derived by multiplying
  * numerator and denominator by the conjugate; verified with sympy in the fixture script):
  *   axis:    dT/dτ = (E² + b²)/(E + b √W),           b² = μ/ρ²,
  *   equator: dT/dτ = (E² A + ρ² μ)/(E A + √(ρ² μ R)).
@@ -29,8 +29,8 @@
  * closed form, so a path ending close to the horizon keeps full accuracy.
  *
  * The integrals over r use tanh-sinh quadrature (./quadrature.ts), which copes with the 1/√(r₁ − r)
- * singularity at a turning point. Schwarzschild falls from rest at r₁ (the cycloid, MTW 1973 §31.10
- * and eq. 31.10) and from rest at infinity (E = 1) have closed forms, used as fast paths.
+ * singularity at a turning point. Schwarzschild falls from rest at r₁ (the cycloid, MTW 1973 ch. 31,
+ * eq. 31.10) and from rest at infinity (E = 1) have closed forms, used as fast paths.
  */
 import { tanhSinhVector, type VectorIntegrand } from './quadrature.js';
 import {
@@ -546,7 +546,7 @@ function schwarzschildClosedForm(
 /**
  * Proper time of the river frame (E = 1, falling from rest at infinity) in Schwarzschild from r₁ down
  * to r₂: dr/dτ = −√(2/r), so τ = (2/3)(r₁^{3/2} − r₂^{3/2})/√2 (M = 1; Misner, Thorne & Wheeler
- * 1973, Gravitation, §31.10 with r₁ → ∞ as the start), evaluated as
+ * 1973, Gravitation, ch. 31, with the start at rest at infinity), evaluated as
  * (√2/3)(r₁ − r₂)(r₁ + √(r₁r₂) + r₂)/(√r₁ + √r₂) to avoid cancellation. From the horizon to r = 0: 4/3.
  */
 export function riverFrameProperTime(r1: number, r2: number): number {
@@ -557,14 +557,14 @@ export function riverFrameProperTime(r1: number, r2: number): number {
 
 /**
  * Schwarzschild fall from rest at r₁ ≥ 2 to r₂ ∈ [0, r₁] (Misner, Thorne & Wheeler 1973, Gravitation,
- * §31.10, eq. 31.10, the cycloid): r = (r₁/2)(1 + cos η), so tan(η/2) = √((r₁ − r)/r) and
+ * ch. 31, eq. 31.10, the cycloid; equation number from memory): r = (r₁/2)(1 + cos η), so tan(η/2) = √((r₁ − r)/r) and
  *   τ = √(r₁³/8) (η + sin η),
  *   t = 2 ln|(k + tan(η/2))/(k − tan(η/2))| + 2k[η + (r₁/4)(η + sin η)],   k = √(r₁/2 − 1),
  * with the logarithm evaluated as 4 artanh(tan(η/2)/k) (t exists only while r₂ > 2), and the river time
  * T = t + 4u + 2 ln|(u − 1)/(u + 1)| (u = √(r/2)) combined into a form regular at r = 2:
  *   ΔT = 4(u₂ − u₁) + 2k[η + (r₁/4)(η + sin η)] + 2 ln(r₂/r₁) + 4 ln(1 + tan(η/2)/k) + 4 ln((u₁+1)/(u₂+1)).
  * The t and T forms are from MTW's t(η) (recalled from memory) and checked against quadrature in the
- * fixture and tests. From r₁ = 2 (E = 0) to 0: τ = π, the longest proper time inside (MTW §31.10);
+ * fixture and tests. From r₁ = 2 (E = 0) to 0: τ = π, the longest proper time inside (MTW 1973 ch. 31);
  * t and T are null there (E = 0).
  */
 export function schwarzschildDropFromRest(

@@ -23,8 +23,9 @@
  * singular factor at an end must use those distances, not x, for it.
  *
  * Cost: the nodes and weights of each level are computed once per process (lazily) and shared; an
- * integration allocates only its small result. The sums stop early in each tail once a term falls
- * below 1e−20 of the running sum of magnitudes (the terms there decrease double-exponentially).
+ * integration allocates a few small arrays, and nothing per evaluation. The sums stop early in each
+ * tail once a term falls below 1e−20 of the running sum of magnitudes (past t ≈ 1.3, where the terms
+ * decrease double-exponentially).
  */
 
 /** f(x, x − a, b − x): the integrand with the distances to both ends, each with full precision. */
