@@ -44,6 +44,12 @@ export const PROBLEMS = {
     description:
       'For example a negative mass, spin² + charge² > 1 for a body without a surface (a naked singularity), a point inside the body or at the singularity. `detail` and `errors` say which.',
   },
+  'tolerance-not-met': {
+    status: 422,
+    title: 'The requested accuracy cannot be reached',
+    description:
+      'A numerical method (quadrature, integration) stopped at its documented limit before meeting the tolerance; no inaccurate number is returned. Loosen the tolerance or change the request.',
+  },
   'too-many-requests': {
     status: 429,
     title: 'Too many requests',

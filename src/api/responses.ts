@@ -56,6 +56,7 @@ export const pointEchoSchema = z
       'betweenHorizons',
       'innerHorizon',
       'insideInnerHorizon',
+      'singularity',
       'belowSurface',
     ]),
   })

@@ -61,7 +61,7 @@ export const REASONS = {
   notFinite: 'the value is not finite in double precision at this point',
 } as const;
 
-const INSIDE: ReadonlySet<Region> = new Set(['betweenHorizons', 'innerHorizon', 'insideInnerHorizon']);
+const INSIDE: ReadonlySet<Region> = new Set(['betweenHorizons', 'innerHorizon', 'insideInnerHorizon', 'singularity']);
 
 function flowReason(p: PointFunctions): string {
   return p.mu < 0 ? REASONS.noFlow : REASONS.noCausalRegion;

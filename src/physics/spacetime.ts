@@ -60,6 +60,7 @@ export type Region =
   | 'betweenHorizons'
   | 'innerHorizon'
   | 'insideInnerHorizon'
+  | 'singularity'
   | 'belowSurface';
 
 /** The auxiliary functions at (r, θ); computed once per point and shared by every quantity. */
@@ -264,10 +265,12 @@ export function hoverAcceleration(
 /** Region of a point, given the spacetime and, for a body with a surface, its radius (BL r). */
 export function region(s: KerrNewman, r: number, theta: number, surfaceRadius?: number): Region {
   if (surfaceRadius !== undefined && r < surfaceRadius) return 'belowSurface';
+  // Σ = 0: the central point (a = 0) or the ring r = 0, θ = π/2 (a ≠ 0).
+  if (r === 0 && (s.a === 0 || Math.cos(theta) === 0 || Math.abs(Math.cos(theta)) < 1e-16)) return 'singularity';
   const h = horizons(s);
   if (h) {
     if (r < h.inner) return 'insideInnerHorizon';
-    if (r === h.inner && h.inner < h.outer) return 'innerHorizon';
+    if (r === h.inner && h.inner > 0 && h.inner < h.outer) return 'innerHorizon';
     if (r < h.outer) return 'betweenHorizons';
     if (r === h.outer) return 'outerHorizon';
   }
