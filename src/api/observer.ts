@@ -87,7 +87,12 @@ export function normalizeObserver(input: ObserverInput, body: Body, path: string
   return { observer: result, point, input };
 }
 
-const value = z.object({ value: z.number().nullable(), unit: z.string(), geometric: z.number().nullable().optional() });
+const value = z.object({
+  value: z.number().nullable(),
+  unit: z.string(),
+  geometric: z.number().nullable().optional(),
+  reason: z.string().optional(),
+});
 
 export const observerEchoSchema = z
   .object({
@@ -107,7 +112,8 @@ export const observerEchoSchema = z
 /** The observer as the response shows it. */
 export function observerEcho(n: NormalizedObserver, body: Body): z.infer<typeof observerEchoSchema> {
   const o = n.observer;
-  const speed = (v: number | null) => ({ value: v === null ? null : v * C, unit: 'm/s', geometric: v });
+  const speed = (v: number | null, reason: string) =>
+    v === null ? { value: null, unit: 'm/s', geometric: null, reason } : { value: v * C, unit: 'm/s', geometric: v };
   return {
     kind: o.kind,
     point: n.point ? pointEcho(n.point, region(body.spacetime, n.point.rGeometric, n.point.theta, body.radiusGeometric ?? undefined)) : null,
@@ -115,7 +121,7 @@ export function observerEcho(n: NormalizedObserver, body: Body): z.infer<typeof 
     angularVelocity: { value: o.angularVelocity / body.tg, unit: 'rad/s', geometric: o.angularVelocity },
     clockRate: { value: o.rate, unit: '1' },
     clockOffset: { value: o.offset, unit: '1' },
-    speedRelativeToZamo: speed(o.velocityRelativeToZamo),
-    speedRelativeToStatic: speed(o.velocityRelativeToStatic),
+    speedRelativeToZamo: speed(o.velocityRelativeToZamo, 'no zero-angular-momentum observer exists here'),
+    speedRelativeToStatic: speed(o.velocityRelativeToStatic, 'no static observer exists here (on or inside the ergosurface)'),
   };
 }

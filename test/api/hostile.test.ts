@@ -7,86 +7,15 @@
  * Runs are bounded (a few hundred requests per property) so the file stays well under 20 s on 2 cores.
  */
 import fc from 'fast-check';
-import type { FastifyInstance, LightMyRequestResponse } from 'fastify';
-import type { z } from 'zod';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { localResponse } from '../../src/api/local.js';
-import { spacetimeResponse } from '../../src/api/spacetime.js';
-import { buildApp } from '../../src/app.js';
+import { useApp } from '../helpers.js';
+import { checkResponse, RUNS } from './hostile-checks.js';
 
-let app: FastifyInstance;
-beforeAll(async () => {
-  app = await buildApp({ logger: false });
-});
-afterAll(async () => {
-  await app.close();
-});
-
-const ALLOWED = new Set([200, 400, 404, 413, 415, 422]);
-const SCHEMAS: Record<string, z.ZodType> = {
-  '/v1/local': localResponse,
-  '/v1/spacetime': spacetimeResponse,
-};
-
-/**
- * fast-check settings: bounded run counts (HOSTILE_RUNS_SCALE=20 for a longer soak); a run that takes
- * over 5 s counts as a hang and fails.
- */
-const SCALE = Math.max(1, Number(process.env.HOSTILE_RUNS_SCALE) || 1);
-const RUNS = (numRuns: number) => ({ numRuns: Math.round(numRuns * SCALE), timeout: 5_000 });
-
-interface Quantity {
-  value: number | null;
-  unit: string;
-  geometric?: number | null;
-  reason?: string;
-}
-
-function checkQuantities(quantities: Record<string, Quantity>, where: string): void {
-  for (const [name, q] of Object.entries(quantities)) {
-    const at = `${where} quantities.${name}`;
-    if (q.value === null) {
-      // A NaN or Infinity would have been serialised as null silently: every null must say why.
-      expect(typeof q.reason === 'string' && q.reason.trim().length > 0, `${at}: null without a reason`).toBe(true);
-      if (q.geometric !== undefined) expect(q.geometric, `${at}: SI null but geometric not`).toBeNull();
-    } else {
-      expect(Number.isFinite(q.value), at).toBe(true);
-      expect(q.reason, `${at}: a value with a reason`).toBeUndefined();
-      if (q.geometric !== undefined) {
-        expect(q.geometric, `${at}: geometric null but SI not`).not.toBeNull();
-        expect(Number.isFinite(q.geometric), at).toBe(true);
-      }
-    }
-  }
-}
-
-/** The properties every response must have, whatever the request. */
-function checkResponse(res: LightMyRequestResponse, path: string, request: string): void {
-  const where = `${path} <- ${request.slice(0, 300)}`;
-  expect(res.statusCode, `${where}\n${res.body.slice(0, 500)}`).toBeLessThan(500);
-  expect(ALLOWED.has(res.statusCode), `${where}: status ${res.statusCode}\n${res.body.slice(0, 500)}`).toBe(true);
-  if (res.statusCode === 200) {
-    expect(res.headers['content-type'], where).toMatch(/^application\/json\b/);
-    const json = res.json<Record<string, unknown>>();
-    const schema = SCHEMAS[path];
-    if (schema) {
-      const parsed = schema.safeParse(json);
-      expect(parsed.success, `${where}: ${parsed.success ? '' : JSON.stringify(parsed.error.issues).slice(0, 500)}`).toBe(true);
-      checkQuantities(json.quantities as Record<string, Quantity>, where);
-    }
-  } else {
-    expect(res.headers['content-type'], where).toMatch(/^application\/problem\+json\b/);
-    const p = res.json<{ type: unknown; title: unknown; status: unknown; detail: unknown; requestId: unknown }>();
-    expect(p.status, where).toBe(res.statusCode);
-    expect(p.type, where).toMatch(/^\/problems\/[a-z-]+$/);
-    expect(typeof p.title, where).toBe('string');
-    expect(typeof p.detail, where).toBe('string');
-    expect(typeof p.requestId, where).toBe('string');
-  }
-}
+const app = useApp();
 
 const postJson = (path: string, text: string) =>
-  app.inject({ method: 'POST', url: path, payload: text, headers: { 'content-type': 'application/json' } });
+  app().inject({ method: 'POST', url: path, payload: text, headers: { 'content-type': 'application/json' } });
 
 async function postAndCheck(path: string, text: string): Promise<number> {
   const res = await postJson(path, text);
@@ -518,7 +447,7 @@ describe('hostile query strings', () => {
     await fc.assert(
       fc.asyncProperty(fc.constantFrom('/v1/local', '/v1/spacetime', '/v1/quantities'), queryString, async (path, render) => {
         const url = `${path}?${render(path)}`;
-        const res = await app.inject({ method: 'GET', url });
+        const res = await app().inject({ method: 'GET', url });
         checkResponse(res, path, url);
         if (res.statusCode === 200 && path !== '/v1/quantities') computed++;
       }),
@@ -530,10 +459,10 @@ describe('hostile query strings', () => {
 
 describe('after all that', () => {
   it('the app still answers a normal request', async () => {
-    const res = await app.inject({ method: 'GET', url: '/v1/local?mass=10%20Msun&spin=0.9&r=6%20rg' });
+    const res = await app().inject({ method: 'GET', url: '/v1/local?mass=10%20Msun&spin=0.9&r=6%20rg' });
     expect(res.statusCode).toBe(200);
     expect(localResponse.safeParse(res.json()).success).toBe(true);
-    const post = await app.inject({ method: 'POST', url: '/v1/spacetime', payload: { body: 'earth' } });
+    const post = await app().inject({ method: 'POST', url: '/v1/spacetime', payload: { body: 'earth' } });
     expect(post.statusCode).toBe(200);
   });
 });
