@@ -85,9 +85,13 @@ function q(
   scale: Scale,
   endpoint: string,
   description: string,
+  sweepable = true,
 ): QuantityInfo {
-  return { name, unit, scale, geometricUnit: GEOMETRIC_UNIT[scale], description, endpoint, sweepable: true };
+  return { name, unit, scale, geometricUnit: GEOMETRIC_UNIT[scale], description, endpoint, sweepable };
 }
+
+const CLOCKS = '/v1/clocks';
+const PROPER_TIME = '/v1/proper-time';
 
 const LOCAL = '/v1/local';
 const SPACETIME = '/v1/spacetime';
@@ -125,6 +129,19 @@ export const CATALOGUE: readonly QuantityInfo[] = [
   q('surfaceEscapeSpeed', 'm/s', 'speed', SPACETIME, 'escapeSpeed at the equatorial surface of a body with a surface.'),
   q('surfaceClockOffset', '1', 'none', SPACETIME, 'staticClockOffset at the equatorial surface of a body with a surface (no rotation of the clock).'),
   q('surfaceHoverAcceleration', 'm/s^2', 'acceleration', SPACETIME, 'hoverAcceleration at the equatorial surface of a body with a surface (no centrifugal part).'),
+  // Observer quantities: they depend on an observer as well as the point, so they are not swept.
+  q('clockRate', '1', 'none', CLOCKS, 'dτ/dt of an observer (static, ZAMO, circular orbit, rotating, distant) against far-away time.', false),
+  q('clockOffset', '1', 'none', CLOCKS, '1 - clockRate, computed without cancellation.', false),
+  q('speedRelativeToZamo', 'm/s', 'speed', CLOCKS, 'Speed of an observer measured by the local ZAMO (signed, + along the spin).', false),
+  q('speedRelativeToStatic', 'm/s', 'speed', CLOCKS, 'Speed of an observer measured by the local static observer.', false),
+  q('rateRatio', '1', 'none', CLOCKS, 'rate_B / rate_A: seconds of clock B per second of clock A.', false),
+  q('fractionalOffset', '1', 'none', CLOCKS, 'rate_B / rate_A - 1, computed without cancellation.', false),
+  q('gainPerDay', 's', 'none', CLOCKS, 'Time clock B gains on clock A per day of A (also in µs and ns).', false),
+  q('gainPerYear', 's', 'none', CLOCKS, 'Time clock B gains on clock A per Julian year of A.', false),
+  q('properTime', 's', 'time', PROPER_TIME, 'Time elapsed on the clock of a stationary, orbiting or free-falling observer.', false),
+  q('farAwayTime', 's', 'time', PROPER_TIME, 'Boyer–Lindquist time t elapsed: the time of a clock at rest far away.', false),
+  q('riverTime', 's', 'time', PROPER_TIME, 'Gullstrand–Painlevé / Doran time T elapsed: the proper time of observers falling from rest at infinity.', false),
+  q('lag', 's', 'time', PROPER_TIME, 'farAwayTime - properTime of a stationary clock, computed without cancellation.', false),
 ];
 
 export const CATALOGUE_BY_NAME: ReadonlyMap<string, QuantityInfo> = new Map(CATALOGUE.map((c) => [c.name, c]));

@@ -91,7 +91,7 @@ export function pointEcho(p: Point, region: z.infer<typeof pointEchoSchema>['reg
 export const service = { name: SERVICE_NAME, version: VERSION } as const;
 
 export const CAUTION =
-  'Validated physics, not a certified timing or navigation product: for navigation, legal time or safety-related timing defer to the applicable standards (IERS, IAU, ITU-R TF) and licensed practice.';
+  'Validated physics, not a certified timing or navigation product; defer to the applicable standards (IERS, IAU, ITU-R TF) and licensed practice.';
 
 const COORDINATES = 'r is the Boyer–Lindquist radius; θ the polar angle from the spin axis.';
 const EXTERIOR =
