@@ -5,16 +5,8 @@
  */
 import { z } from 'zod';
 import { ProblemError, invalid, unphysical } from '../errors.js';
-import {
-  circularOrbitRevolutions,
-  FALL_REASONS,
-  freeFall,
-  stationaryFarAwayTime,
-  stationaryProperTime,
-  type FallStart,
-  type FreeFall,
-  type FreeFallRefused,
-} from '../physics/proper-time.js';
+import { FALL_REASONS, freeFall, type FallStart, type FreeFall, type FreeFallRefused } from '../physics/free-fall.js';
+import { circularOrbitRevolutions, stationaryFarAwayTime, stationaryProperTime } from '../physics/proper-time.js';
 import { region } from '../physics/spacetime.js';
 import { QuantityError, toLength, toSI, type Dimension } from '../units/quantity.js';
 import { bodyInput, normalizeBody, normalizePoint, pointInput, quantityInput, type Body } from './inputs.js';
