@@ -30,6 +30,17 @@ export const SPACETIME_QUANTITIES = [
 ] as const;
 type SpacetimeQuantity = (typeof SPACETIME_QUANTITIES)[number];
 
+/** The properties of a black hole's outer horizon (from physics/horizon.ts). */
+const HORIZON_QUANTITIES = [
+  'surfaceGravity',
+  'hawkingTemperature',
+  'horizonArea',
+  'horizonAngularVelocity',
+  'horizonElectricPotential',
+  'irreducibleMass',
+] as const;
+const SURFACE_QUANTITIES = ['compactness', 'surfaceEscapeSpeed', 'surfaceClockOffset', 'surfaceHoverAcceleration'] as const;
+
 export const spacetimeRequest = z.strictObject({ body: bodyInput }).meta({ id: 'SpacetimeRequest' });
 export type SpacetimeRequest = z.infer<typeof spacetimeRequest>;
 
@@ -63,23 +74,11 @@ export function computeSpacetime(input: SpacetimeRequest): SpacetimeResponse {
   if (hp && R === null) {
     geo.set('outerHorizon', hp.outer);
     geo.set('innerHorizon', hp.inner);
-    for (const k of [
-      'surfaceGravity',
-      'hawkingTemperature',
-      'horizonArea',
-      'horizonAngularVelocity',
-      'horizonElectricPotential',
-      'irreducibleMass',
-    ] as const) {
-      geo.set(k, hp[k]);
-    }
+    for (const k of HORIZON_QUANTITIES) geo.set(k, hp[k]);
   } else {
-    for (const k of ['outerHorizon', 'innerHorizon'] as const) {
-      reasons.set(k, hp ? belowSurface(k === 'outerHorizon' ? 'outer horizon' : 'inner horizon', hp[k === 'outerHorizon' ? 'outer' : 'inner']) : NAKED);
-    }
-    for (const k of ['surfaceGravity', 'hawkingTemperature', 'horizonArea', 'horizonAngularVelocity', 'horizonElectricPotential', 'irreducibleMass'] as const) {
-      reasons.set(k, BLACK_HOLE_ONLY);
-    }
+    reasons.set('outerHorizon', hp ? belowSurface('outer horizon', hp.outer) : NAKED);
+    reasons.set('innerHorizon', hp ? belowSurface('inner horizon', hp.inner) : NAKED);
+    for (const k of HORIZON_QUANTITIES) reasons.set(k, BLACK_HOLE_ONLY);
   }
   for (const [k, theta] of [['ergosurfaceEquator', Math.PI / 2], ['ergosurfacePole', 0]] as const) {
     const e = ergosurfaceRadius(s, theta);
@@ -88,9 +87,7 @@ export function computeSpacetime(input: SpacetimeRequest): SpacetimeResponse {
     else geo.set(k, e);
   }
   if (R === null) {
-    for (const k of ['compactness', 'surfaceEscapeSpeed', 'surfaceClockOffset', 'surfaceHoverAcceleration'] as const) {
-      reasons.set(k, SURFACE_ONLY);
-    }
+    for (const k of SURFACE_QUANTITIES) reasons.set(k, SURFACE_ONLY);
   } else {
     geo.set('compactness', 2 / R);
     const at = evaluateLocal(s, R, Math.PI / 2, R);

@@ -3,11 +3,10 @@
  * GET/POST agreement, presets with altitude, unit equivalences, quantities that are null with a
  * reason, and the response contract (zod schema, content type, request id).
  */
-import type { FastifyInstance } from 'fastify';
 import type { LightMyRequestResponse } from 'fastify';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { localResponse, type LocalResponse } from '../../src/api/local.js';
-import { buildApp } from '../../src/app.js';
+import { expectRel, useApp } from '../helpers.js';
 
 /** Speed of light, m/s (exact; SI 2019, CODATA 2018). */
 const C = 299_792_458;
@@ -20,23 +19,9 @@ const GM_EARTH = 3.986_004_418e14;
 /** Earth's equatorial radius, m (WGS84). */
 const R_EARTH = 6_378_137;
 
-/** |actual/expected - 1|, with an absolute fallback at expected = 0. */
-function relErr(actual: number, expected: number): number {
-  return expected === 0 ? Math.abs(actual) : Math.abs(actual / expected - 1);
-}
 
-function expectRel(actual: number | null | undefined, expected: number, tol: number): void {
-  expect(actual, `expected ≈ ${expected}`).toBeTypeOf('number');
-  expect(relErr(actual as number, expected), `${actual} vs ${expected}`).toBeLessThanOrEqual(tol);
-}
 
-let app: FastifyInstance;
-beforeAll(async () => {
-  app = await buildApp({ logger: false });
-});
-afterAll(async () => {
-  await app.close();
-});
+const app = useApp();
 
 /** Asserts the 200 JSON contract and returns the response parsed by the published zod schema. */
 function ok(res: LightMyRequestResponse): LocalResponse {
@@ -51,8 +36,8 @@ function ok(res: LightMyRequestResponse): LocalResponse {
 }
 
 const get = (query: string, headers: Record<string, string> = {}) =>
-  app.inject({ method: 'GET', url: `/v1/local?${query}`, headers });
-const post = (payload: unknown) => app.inject({ method: 'POST', url: '/v1/local', payload: payload as object });
+  app().inject({ method: 'GET', url: `/v1/local?${query}`, headers });
+const post = (payload: unknown) => app().inject({ method: 'POST', url: '/v1/local', payload: payload as object });
 
 function q(r: LocalResponse, name: string) {
   const v = r.quantities[name];

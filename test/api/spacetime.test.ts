@@ -2,10 +2,10 @@
  * GET and POST /v1/spacetime through the whole app: horizon properties of Schwarzschild, extremal
  * and moderate Kerr holes against their closed forms and published values, and a body with a surface.
  */
-import type { FastifyInstance, LightMyRequestResponse } from 'fastify';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { LightMyRequestResponse } from 'fastify';
+import { describe, expect, it } from 'vitest';
 import { spacetimeResponse, type SpacetimeResponse } from '../../src/api/spacetime.js';
-import { buildApp } from '../../src/app.js';
+import { expectRel, useApp } from '../helpers.js';
 
 /** Speed of light, m/s (exact; SI 2019, CODATA 2018). */
 const C = 299_792_458;
@@ -24,22 +24,9 @@ const GM_EARTH = 3.986_004_418e14;
 /** Earth's equatorial radius, m (WGS84). */
 const R_EARTH = 6_378_137;
 
-function relErr(actual: number, expected: number): number {
-  return expected === 0 ? Math.abs(actual) : Math.abs(actual / expected - 1);
-}
 
-function expectRel(actual: number | null | undefined, expected: number, tol: number): void {
-  expect(actual, `expected ≈ ${expected}`).toBeTypeOf('number');
-  expect(relErr(actual as number, expected), `${actual} vs ${expected}`).toBeLessThanOrEqual(tol);
-}
 
-let app: FastifyInstance;
-beforeAll(async () => {
-  app = await buildApp({ logger: false });
-});
-afterAll(async () => {
-  await app.close();
-});
+const app = useApp();
 
 function ok(res: LightMyRequestResponse): SpacetimeResponse {
   expect(res.statusCode, res.body).toBe(200);
@@ -51,8 +38,8 @@ function ok(res: LightMyRequestResponse): SpacetimeResponse {
   return json as SpacetimeResponse;
 }
 
-const get = (query: string) => app.inject({ method: 'GET', url: `/v1/spacetime?${query}` });
-const post = (payload: unknown) => app.inject({ method: 'POST', url: '/v1/spacetime', payload: payload as object });
+const get = (query: string) => app().inject({ method: 'GET', url: `/v1/spacetime?${query}` });
+const post = (payload: unknown) => app().inject({ method: 'POST', url: '/v1/spacetime', payload: payload as object });
 
 function q(r: SpacetimeResponse, name: string) {
   const v = r.quantities[name];
