@@ -1,19 +1,24 @@
 /**
- * What every benchmark case shares: starting a server as a child process on a free loopback port,
- * stopping it (always, also on errors and signals), and one autocannon measurement.
+ * What every benchmark case shares: starting a server or a helper program as a child process (always
+ * stopped again, also on errors and signals), one autocannon measurement, timing an in-process
+ * function, and printing a table with the machine it ran on.
  *
  * Servers and the load generator run in different processes, so on a small machine they take
  * different cores. Traffic goes to 127.0.0.1 only.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
+import { arch, availableParallelism, cpus, platform, totalmem } from 'node:os';
+import { performance } from 'node:perf_hooks';
 import autocannon from 'autocannon';
+import type { FreeFallOptions, FreeFallRequest } from '../src/physics/free-fall.js';
+import type { KerrNewman } from '../src/physics/spacetime.js';
 
 export const HOST = '127.0.0.1';
 export const CONNECTIONS = 50;
 
 /** Which server a case runs against. */
-export type Target = 'bareTiny' | 'barePayload' | 'service';
+export type Target = 'bareTiny' | 'barePayload' | 'barePayloadPost' | 'service';
 
 /** One benchmark case: a request repeated by every connection. */
 export interface BenchCase {
@@ -24,6 +29,31 @@ export interface BenchCase {
   path: string;
   body?: string;
   headers?: Record<string, string>;
+  /**
+   * Bare routes only: the service case whose request this route takes and whose response bytes it
+   * sends back, so that case's "vs same payload" is read against this one.
+   */
+  sameBytesAs?: BenchCase;
+  /**
+   * A service case's own target, replacing the default /v1/local one: req/s at least `atLeast` times
+   * that of `relativeTo` measured in the same run, without errors.
+   */
+  goal?: { relativeTo: BenchCase; atLeast: number; statement: string };
+}
+
+/** One in-process case: a call of freeFall (src/physics/free-fall.ts), timed by timePerCall. */
+export interface FallCase {
+  name: string;
+  spacetime: KerrNewman;
+  request: FreeFallRequest;
+  options: FreeFallOptions;
+  /** The method freeFall must choose here; quadrature cases are held to the per-call target. */
+  method: 'quadrature' | 'closedForm';
+  /**
+   * The same proper-time integral for the scipy rival (bench/rivals/scipy_fall.py), a = 0 only:
+   * τ = ∫ dr/√(E² − f(r)) from rMin to rMax, f = 1 − 2/r + q²/r², at relative tolerance epsrel.
+   */
+  rival?: { q: number; energy: number; rMin: number; rMax: number; epsrel: number };
 }
 
 export interface Measurement {
@@ -79,59 +109,129 @@ export function freePort(): Promise<number> {
   });
 }
 
+interface Tracked {
+  child: ChildProcess;
+  /** Resolves with the exit code (null when killed by a signal) once the child has exited. */
+  exit: Promise<number | null>;
+  /** Resolves once the child's stdout and stderr are closed too (all of its output has been read). */
+  closed: Promise<void>;
+  exited: () => boolean;
+  stdout: () => string;
+  /** The last TAIL_CHARS of stdout and stderr, interleaved, for error messages. */
+  tail: () => string;
+}
+
+/** Spawns a child that installCleanup() kills if this process ends first. */
+function spawnTracked(command: string, args: string[], options: { cwd: string; env?: Record<string, string> }): Tracked {
+  const child = spawn(command, args, {
+    cwd: options.cwd,
+    env: { ...process.env, ...options.env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  children.add(child);
+  let out = '';
+  let tail = '';
+  let done = false;
+  const keep = (chunk: Buffer) => {
+    tail = (tail + chunk.toString('utf8')).slice(-TAIL_CHARS);
+  };
+  child.stdout?.on('data', (chunk: Buffer) => {
+    out += chunk.toString('utf8');
+    keep(chunk);
+  });
+  child.stderr?.on('data', keep);
+  const exit = new Promise<number | null>((resolve) => {
+    child.once('error', (err) => {
+      keep(Buffer.from(`${err.message}\n`));
+      done = true;
+      children.delete(child);
+      resolve(null);
+    });
+    child.once('exit', (code) => {
+      done = true;
+      children.delete(child);
+      resolve(code);
+    });
+  });
+  const closed = new Promise<void>((resolve) => {
+    child.once('close', () => resolve());
+    child.once('error', () => resolve());
+  });
+  return { child, exit, closed, exited: () => done, stdout: () => out, tail: () => tail };
+}
+
 /**
- * Starts `node <args>` as a child process and resolves once GET `readyPath` answers 200. `args` may
- * use the placeholder "{port}" for the port chosen here; `env` is added to the current environment.
+ * Runs `command args` to completion (killed after `timeoutMs`) and returns its stdout; throws with the
+ * end of its output when it fails.
+ */
+export async function runProgram(command: string, args: string[], options: { cwd: string; timeoutMs: number }): Promise<string> {
+  const p = spawnTracked(command, args, { cwd: options.cwd });
+  let timedOut = false;
+  const timer = setTimeout(() => {
+    timedOut = true;
+    p.child.kill('SIGKILL');
+  }, options.timeoutMs);
+  const code = await p.exit;
+  await p.closed;
+  clearTimeout(timer);
+  if (code !== 0) {
+    const how = timedOut ? `was killed after ${options.timeoutMs} ms` : `exited with ${code ?? 'a signal or a spawn error'}`;
+    throw new Error(`${command} ${how}; its output ended with:\n${p.tail()}`);
+  }
+  return p.stdout();
+}
+
+/** A request as a case makes it; also what tells that a server is ready. */
+export type Request = Pick<BenchCase, 'method' | 'path' | 'body' | 'headers'>;
+
+/** Sends `req` once to `url` and returns the status and the body text. */
+export async function send(url: string, req: Request, timeoutMs = 5000): Promise<{ status: number; text: string }> {
+  const res = await fetch(url + req.path, {
+    method: req.method,
+    ...(req.headers ? { headers: req.headers } : {}),
+    ...(req.body !== undefined ? { body: req.body } : {}),
+    signal: AbortSignal.timeout(timeoutMs),
+  });
+  return { status: res.status, text: await res.text() };
+}
+
+/**
+ * Starts `node <args>` as a child process and resolves once `ready` answers 200. `args` may use the
+ * placeholder "{port}" for the port chosen here; `env` is added to the current environment.
  */
 export async function startServer(
   name: string,
   args: string[],
-  options: { env?: Record<string, string>; readyPath: string; cwd: string },
+  options: { env?: Record<string, string>; ready: Request; cwd: string },
 ): Promise<Server> {
   const port = await freePort();
-  const child = spawn(process.execPath, args.map((a) => a.replace('{port}', String(port))), {
+  const p = spawnTracked(process.execPath, args.map((a) => a.replace('{port}', String(port))), {
     cwd: options.cwd,
-    env: { ...process.env, ...options.env, PORT: String(port) },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  children.add(child);
-  let tail = '';
-  const keep = (chunk: Buffer) => {
-    tail = (tail + chunk.toString('utf8')).slice(-TAIL_CHARS);
-  };
-  child.stdout?.on('data', keep);
-  child.stderr?.on('data', keep);
-  let exited = false;
-  child.once('exit', () => {
-    exited = true;
-    children.delete(child);
+    env: { ...options.env, PORT: String(port) },
   });
 
   const url = `http://${HOST}:${port}`;
   const stop = async () => {
-    if (exited) return;
-    const gone = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-    child.kill('SIGTERM');
-    const timer = setTimeout(() => child.kill('SIGKILL'), STOP_GRACE_MS);
-    await gone;
+    if (p.exited()) return;
+    p.child.kill('SIGTERM');
+    const timer = setTimeout(() => p.child.kill('SIGKILL'), STOP_GRACE_MS);
+    await p.exit;
     clearTimeout(timer);
   };
 
   const server: Server = { name, url, stop };
   running.add(server);
-  child.once('exit', () => running.delete(server));
-  for (let attempt = 0; attempt < READY_ATTEMPTS && !exited; attempt++) {
+  void p.exit.then(() => running.delete(server));
+  for (let attempt = 0; attempt < READY_ATTEMPTS && !p.exited(); attempt++) {
     try {
-      const res = await fetch(url + options.readyPath, { signal: AbortSignal.timeout(1000) });
-      await res.arrayBuffer();
-      if (res.status === 200) return server;
+      if ((await send(url, options.ready, 1000)).status === 200) return server;
     } catch {
       // not listening yet
     }
     await sleep(READY_INTERVAL_MS);
   }
   await stop();
-  throw new Error(`${name} did not become ready on ${url}${options.readyPath}; its output ended with:\n${tail}`);
+  throw new Error(`${name} did not become ready on ${url} (${options.ready.method} ${options.ready.path}); its output ended with:\n${p.tail()}`);
 }
 
 /** Stops every server started here that is still running (their pipes would keep this process alive). */
@@ -180,4 +280,63 @@ export async function measure(server: Server, c: BenchCase, seconds: number, war
     errors: result.errors,
     non2xx: result.non2xx,
   };
+}
+
+/** How an in-process function is timed; bench/rivals/scipy_fall.py follows the same procedure. */
+export const TIMING = {
+  /** Calls per round, at least; raised so that one round lasts `roundSeconds`. */
+  minCalls: 20_000,
+  roundSeconds: 0.25,
+  rounds: 5,
+} as const;
+
+export interface Timing {
+  /** Median over the rounds of the mean time per call, µs. */
+  microseconds: number;
+  /** Fastest and slowest round, µs per call. */
+  min: number;
+  max: number;
+  callsPerRound: number;
+  rounds: number;
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const mid = s.length >> 1;
+  return s.length % 2 === 1 ? (s[mid] as number) : ((s[mid - 1] as number) + (s[mid] as number)) / 2;
+}
+
+/**
+ * Times `fn` in this process: a warm-up of TIMING.minCalls calls (which also sizes the rounds so
+ * that each lasts about TIMING.roundSeconds), then TIMING.rounds rounds of the same number of calls.
+ * `fn` returns a number that is summed and checked, so its work cannot be dropped as unused.
+ */
+export function timePerCall(fn: () => number): Timing {
+  let sink = 0;
+  const run = (n: number) => {
+    const start = performance.now();
+    for (let i = 0; i < n; i++) sink += fn();
+    return (performance.now() - start) / n; // ms per call
+  };
+  const warm = run(TIMING.minCalls);
+  const calls = Math.max(TIMING.minCalls, Math.ceil((TIMING.roundSeconds * 1000) / Math.max(warm, 1e-6)));
+  const perCall: number[] = [];
+  for (let r = 0; r < TIMING.rounds; r++) perCall.push(run(calls) * 1000);
+  if (!Number.isFinite(sink)) throw new Error('the timed function returned a value that is not finite');
+  return { microseconds: median(perCall), min: Math.min(...perCall), max: Math.max(...perCall), callsPerRound: calls, rounds: TIMING.rounds };
+}
+
+/** Node version and machine, the first line of every table. */
+export function machineLine(): string {
+  const gib = (totalmem() / 2 ** 30).toFixed(1);
+  return `spacetide bench — Node ${process.version} · ${cpus()[0]?.model.trim() ?? 'unknown CPU'} · ${availableParallelism()} cores · ${gib} GiB RAM · ${platform()} ${arch()}`;
+}
+
+/** A plain-text table: `header` lines, then the columns (first left-aligned, the rest right-aligned). */
+export function formatTable(header: string[], head: string[], body: string[][]): string {
+  const widths = head.map((h, i) => Math.max(h.length, ...body.map((r) => (r[i] ?? '').length)));
+  const line = (cells: string[]) =>
+    cells.map((cell, i) => (i === 0 ? cell.padEnd(widths[i] ?? 0) : cell.padStart(widths[i] ?? 0))).join('  ');
+  const rule = '-'.repeat(widths.reduce((a, w) => a + w + 2, -2));
+  return [...header, rule, line(head), rule, ...body.map(line), rule].join('\n');
 }

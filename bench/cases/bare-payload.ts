@@ -1,6 +1,6 @@
 /**
- * Context rival: a bare fastify route returning a precomputed copy of the /v1/local response that
- * local-get.ts asks for, at the same path and query string (same bytes, no computation).
+ * Context rival for GET: a bare fastify route returning a precomputed copy of the /v1/local response
+ * that local-get.ts asks for, at the same path and query string (same bytes, no computation).
  */
 import type { BenchCase } from '../harness.js';
 import localGet from './local-get.js';
@@ -10,5 +10,6 @@ const barePayload: BenchCase = {
   target: 'barePayload',
   method: 'GET',
   path: localGet.path,
+  sameBytesAs: localGet,
 };
 export default barePayload;
