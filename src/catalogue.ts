@@ -16,7 +16,9 @@ export type Scale =
   | 'area'
   | 'mass'
   | 'temperature'
-  | 'potential';
+  | 'potential'
+  | 'frequency'
+  | 'specificAngularMomentum';
 
 export interface BodyScales {
   /** GM/c², m. */
@@ -50,6 +52,8 @@ const GEOMETRIC_UNIT: Record<Scale, string | null> = {
   mass: 'M',
   temperature: 'hbar c^3/(G M k_B)',
   potential: 'c^2/sqrt(4 pi epsilon_0 G)',
+  frequency: 'c^3/(GM)',
+  specificAngularMomentum: 'GM/c',
 };
 
 /** Multiplies a geometric value into SI for the body. */
@@ -76,6 +80,10 @@ export function siFactor(scale: Scale, b: BodyScales): number {
       return (HBAR * C) / (K_B * b.rg);
     case 'potential':
       return POTENTIAL_TO_VOLT;
+    case 'frequency':
+      return 1 / b.tg;
+    case 'specificAngularMomentum':
+      return b.rg * C;
   }
 }
 
@@ -91,6 +99,7 @@ function q(
 }
 
 const CLOCKS = '/v1/clocks';
+const ORBITS = '/v1/orbits/circular';
 const PROPER_TIME = '/v1/proper-time';
 
 const LOCAL = '/v1/local';
@@ -129,6 +138,29 @@ export const CATALOGUE: readonly QuantityInfo[] = [
   q('surfaceEscapeSpeed', 'm/s', 'speed', SPACETIME, 'escapeSpeed at the equatorial surface of a body with a surface.'),
   q('surfaceClockOffset', '1', 'none', SPACETIME, 'staticClockOffset at the equatorial surface of a body with a surface (no rotation of the clock).'),
   q('surfaceHoverAcceleration', 'm/s^2', 'acceleration', SPACETIME, 'hoverAcceleration at the equatorial surface of a body with a surface (no centrifugal part).'),
+  // Characteristic equatorial orbits of a black hole (Bardeen, Press & Teukolsky 1972 for Kerr).
+  ...(['Prograde', 'Retrograde'] as const).flatMap((d) => [
+    q(`photonOrbit${d}`, 'm', 'length', SPACETIME, `Boyer–Lindquist radius of the ${d.toLowerCase()} circular photon orbit.`),
+    q(`marginallyBoundOrbit${d}`, 'm', 'length', SPACETIME, `Radius of the ${d.toLowerCase()} marginally bound circular orbit (specific energy 1).`),
+    q(`isco${d}`, 'm', 'length', SPACETIME, `Radius of the ${d.toLowerCase()} innermost stable circular orbit.`),
+    q(`iscoEnergy${d}`, '1', 'none', SPACETIME, `Specific energy E (units of c²) of the ${d.toLowerCase()} ISCO.`),
+    q(`iscoAngularMomentum${d}`, 'm^2/s', 'specificAngularMomentum', SPACETIME, `Specific angular momentum of the ${d.toLowerCase()} ISCO (signed along the spin).`),
+    q(`iscoEfficiency${d}`, '1', 'none', SPACETIME, `Radiative efficiency 1 − E of a thin disc ending at the ${d.toLowerCase()} ISCO.`),
+  ]),
+  // A circular equatorial orbit at r.
+  q('orbitalAngularVelocity', 'rad/s', 'angularVelocity', ORBITS, 'Ω = dφ/dt of the circular orbit, signed (negative for retrograde).', false),
+  q('orbitalFrequency', 'Hz', 'frequency', ORBITS, '|Ω|/2π: revolutions per second of far-away time.', false),
+  q('coordinatePeriod', 's', 'time', ORBITS, '2π/|Ω|: far-away time per revolution.', false),
+  q('properPeriod', 's', 'time', ORBITS, 'Time per revolution on the orbiting clock.', false),
+  q('orbitalSpeed', 'm/s', 'speed', ORBITS, 'Speed of the orbiting body measured by the local ZAMO.', false),
+  q('orbitClockRate', '1', 'none', ORBITS, 'dτ/dt of the orbiting clock.', false),
+  q('specificEnergy', '1', 'none', ORBITS, 'Energy per unit rest energy, E = −u_t.', false),
+  q('bindingEnergy', '1', 'none', ORBITS, '1 − E, without cancellation: the fraction of rest energy released in reaching this orbit from rest at infinity.', false),
+  q('specificAngularMomentum', 'm^2/s', 'specificAngularMomentum', ORBITS, 'Angular momentum per unit mass, u_φ, signed along the spin.', false),
+  q('radialEpicyclicFrequency', 'Hz', 'frequency', ORBITS, 'κ_r/2π: frequency of small radial oscillations about the orbit.', false),
+  q('verticalEpicyclicFrequency', 'Hz', 'frequency', ORBITS, 'κ_θ/2π: frequency of small vertical oscillations.', false),
+  q('periastronPrecessionFrequency', 'Hz', 'frequency', ORBITS, '(|Ω| − κ_r)/2π: precession of a slightly eccentric orbit.', false),
+  q('nodalPrecessionFrequency', 'Hz', 'frequency', ORBITS, '(|Ω| − κ_θ)/2π: precession of a slightly tilted orbit (Lense–Thirring in weak fields).', false),
   // Observer quantities: they depend on an observer as well as the point, so they are not swept.
   q('clockRate', '1', 'none', CLOCKS, 'dτ/dt of an observer (static, ZAMO, circular orbit, rotating, distant) against far-away time.', false),
   q('clockOffset', '1', 'none', CLOCKS, '1 - clockRate, computed without cancellation.', false),

@@ -3,9 +3,10 @@
  */
 import { clocksRoute } from './clocks.js';
 import { localRoute } from './local.js';
+import { circularRoute, precessionRoute } from './orbits.js';
 import { properTimeRoute } from './proper-time.js';
 import type { ComputeRoute } from './route.js';
 import { spacetimeRoute } from './spacetime.js';
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute, clocksRoute, properTimeRoute];
+export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute, clocksRoute, properTimeRoute, circularRoute, precessionRoute];

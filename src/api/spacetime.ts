@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { horizonProperties } from '../physics/horizon.js';
+import { characteristicOrbits } from '../physics/orbits.js';
 import { evaluateLocal } from '../physics/local.js';
 import { ergosurfaceRadius } from '../physics/spacetime.js';
 import { toQuantity, type QuantityValue } from '../units/convert.js';
@@ -27,6 +28,17 @@ export const SPACETIME_QUANTITIES = [
   'surfaceEscapeSpeed',
   'surfaceClockOffset',
   'surfaceHoverAcceleration',
+  ...(['Prograde', 'Retrograde'] as const).flatMap(
+    (d) =>
+      [
+        `photonOrbit${d}`,
+        `marginallyBoundOrbit${d}`,
+        `isco${d}`,
+        `iscoEnergy${d}`,
+        `iscoAngularMomentum${d}`,
+        `iscoEfficiency${d}`,
+      ] as const,
+  ),
 ] as const;
 type SpacetimeQuantity = (typeof SPACETIME_QUANTITIES)[number];
 
@@ -98,11 +110,41 @@ export function computeSpacetime(input: SpacetimeRequest): SpacetimeResponse {
     if (at.reasons.staticClockOffset) reasons.set('surfaceClockOffset', at.reasons.staticClockOffset);
     if (at.reasons.hoverAcceleration) reasons.set('surfaceHoverAcceleration', at.reasons.hoverAcceleration);
   }
+  setCharacteristicOrbits(body, geo, reasons);
   const quantities = {} as Record<SpacetimeQuantity, QuantityValue>;
   for (const n of SPACETIME_QUANTITIES) {
     quantities[n] = toQuantity(n, geo.get(n) ?? Number.NaN, body, reasons.get(n));
   }
   return { service, body: bodyEcho(body), quantities, notes: spacetimeNotes(body) };
+}
+
+/** Photon orbit, marginally bound orbit and ISCO in both directions, with E, L and 1 − E at the ISCO. */
+function setCharacteristicOrbits(body: Body, geo: Map<SpacetimeQuantity, number>, reasons: Map<SpacetimeQuantity, string>): void {
+  const orbits = characteristicOrbits(body.spacetime);
+  const R = body.radiusGeometric;
+  for (const d of ['Prograde', 'Retrograde'] as const) {
+    for (const kind of ['photonOrbit', 'marginallyBoundOrbit', 'isco'] as const) {
+      const o = orbits[`${kind}${d}`];
+      const names: SpacetimeQuantity[] =
+        kind === 'isco' ? [`isco${d}`, `iscoEnergy${d}`, `iscoAngularMomentum${d}`, `iscoEfficiency${d}`] : [`${kind}${d}`];
+      let why: string | undefined;
+      if (!o.exists) why = o.message;
+      else if (R !== null && o.r < R) why = `this orbit (r = ${o.r * body.rg} m) would lie inside the body: the vacuum exterior does not reach it`;
+      if (why || !o.exists) {
+        for (const n of names) reasons.set(n, why ?? '');
+        continue;
+      }
+      geo.set(names[0]!, o.r);
+      if (kind === 'isco') {
+        geo.set(`iscoEnergy${d}`, o.energy ?? Number.NaN);
+        geo.set(`iscoAngularMomentum${d}`, o.angularMomentum ?? Number.NaN);
+        geo.set(`iscoEfficiency${d}`, o.bindingEnergy ?? Number.NaN);
+        if (o.energy === null) {
+          for (const n of names.slice(1)) reasons.set(n, 'in the extremal limit the ISCO meets the horizon in Boyer–Lindquist r and E, L are not defined there');
+        }
+      }
+    }
+  }
 }
 
 function spacetimeNotes(body: Body): string[] {

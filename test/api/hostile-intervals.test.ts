@@ -1,6 +1,6 @@
 /**
  * Property-based hostile and random input for the endpoints that take observers and intervals:
- * POST /v1/clocks and POST /v1/proper-time. Random observers of every kind at random points around
+ * POST /v1/clocks, /v1/proper-time, /v1/orbits/circular and /v1/orbits/precession. Random observers of every kind at random points around
  * random bodies, random falls and orbits, and junk in every slot: the answer is always a documented
  * status, never 5xx, and a 200 always matches its schema with every null explained.
  */
@@ -101,6 +101,27 @@ describe('hostile and random observers and intervals', () => {
         if ((await postAndCheck('/v1/proper-time', { body: b, interval })) === 200) computed++;
       }),
       RUNS(500),
+    );
+    expect(computed).toBeGreaterThan(5);
+  });
+
+  it('POST /v1/orbits/circular and /v1/orbits/precession with random orbits', async () => {
+    let computed = 0;
+    const orbitElements = fc.record(
+      {
+        semiMajorAxis: sometimes(fc.oneof(radius, fc.constantFrom('7020 km', '1 AU', '0.387 AU', '42164 km'))),
+        eccentricity: sometimes(fc.double({ min: -0.5, max: 1.5, noNaN: true })),
+        inclination: sometimes(fc.constantFrom(0, '90 deg', '200 deg', Math.PI)),
+        period: sometimes(fc.constantFrom('87.969 day', '1 yr', 0, '-1 s')),
+      },
+      { requiredKeys: ['semiMajorAxis'] },
+    );
+    await fc.assert(
+      fc.asyncProperty(body, point, fc.constantFrom(undefined, 'prograde', 'retrograde', 'sideways'), orbitElements, async (b, p, d, orbit) => {
+        if ((await postAndCheck('/v1/orbits/circular', d === undefined ? { body: b, point: p } : { body: b, point: p, direction: d })) === 200) computed++;
+        if ((await postAndCheck('/v1/orbits/precession', { body: b, orbit })) === 200) computed++;
+      }),
+      RUNS(300),
     );
     expect(computed).toBeGreaterThan(5);
   });

@@ -176,6 +176,7 @@ describe('GET /v1/quantities', () => {
     const fall = (
       await app.inject({ method: 'POST', url: '/v1/proper-time', payload: { body: { mass: '1 Msun' }, interval: { kind: 'freeFall', from: '10 rg', to: '3 rg', start: 'rest' } } })
     ).json<Json>();
+    const orbit = (await app.inject({ method: 'GET', url: '/v1/orbits/circular?mass=1%20Msun&r=10%20rg' })).json<{ quantities: Json }>();
     /** Every key that occurs anywhere in a document. */
     const keys = (doc: unknown, out = new Set<string>()): Set<string> => {
       if (doc && typeof doc === 'object') for (const [k, v] of Object.entries(doc)) (out.add(k), keys(v, out));
@@ -186,6 +187,7 @@ describe('GET /v1/quantities', () => {
       '/v1/spacetime': new Set(Object.keys(spacetime.quantities)),
       '/v1/clocks': keys(clocks),
       '/v1/proper-time': keys([properTime, fall]),
+      '/v1/orbits/circular': new Set(Object.keys(orbit.quantities)),
     };
     for (const e of catalogue) {
       expect(byEndpoint[e.endpoint], `${e.name}: unknown endpoint ${e.endpoint}`).toBeDefined();
