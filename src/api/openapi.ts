@@ -167,6 +167,7 @@ export function buildOpenApiDocument(): Json {
       { name: 'spacetime', description: 'The spacetime of one body, and quantities at a point.' },
       { name: 'clocks', description: 'Clocks and proper time: observers, clock comparisons, intervals.' },
       { name: 'orbits', description: 'Characteristic orbits, circular-orbit frequencies and weak-field precessions.' },
+      { name: 'light', description: 'Light bending, signal delay and black-hole shadows.' },
       { name: 'catalogue', description: 'What the service computes and how it reports errors.' },
     ],
     paths,

@@ -1,6 +1,6 @@
 /**
  * Property-based hostile and random input for the endpoints that take observers and intervals:
- * POST /v1/clocks, /v1/proper-time, /v1/orbits/circular and /v1/orbits/precession. Random observers of every kind at random points around
+ * POST /v1/clocks, /v1/proper-time, /v1/orbits/*, /v1/light/* and /v1/shadow. Random observers of every kind at random points around
  * random bodies, random falls and orbits, and junk in every slot: the answer is always a documented
  * status, never 5xx, and a 200 always matches its schema with every null explained.
  */
@@ -122,6 +122,38 @@ describe('hostile and random observers and intervals', () => {
         if ((await postAndCheck('/v1/orbits/precession', { body: b, orbit })) === 200) computed++;
       }),
       RUNS(300),
+    );
+    expect(computed).toBeGreaterThan(5);
+  });
+
+  it('POST /v1/light/deflection, /v1/light/delay and /v1/shadow with random rays and views', async () => {
+    let computed = 0;
+    const rayArb = fc.oneof(
+      fc.record({ impactParameter: sometimes(fc.oneof(radius, fc.constantFrom('1 Rsun', '5.196152422706632 rg', '5.2 rg'))) }),
+      fc.record({ closestApproach: sometimes(fc.oneof(radius, fc.constantFrom('1 Rsun', '3 rg', '3.0000001 rg'))) }),
+      fc.record({ impactParameter: junk, closestApproach: junk }, { requiredKeys: [] }),
+    );
+    await fc.assert(
+      fc.asyncProperty(
+        body,
+        rayArb,
+        fc.constantFrom(undefined, 'prograde', 'retrograde'),
+        fc.oneof(radius, fc.constantFrom('1 AU', '1.52 AU')),
+        fc.oneof(fc.constantFrom(0, '17 deg', '90 deg', Math.PI, '181 deg', -1), junk),
+        fc.oneof(fc.constant(undefined), fc.constantFrom('16.8 Mpc', '1 rg', '3 rg', '10 rg', 0), junk),
+        fc.oneof(fc.constant(undefined), fc.constantFrom(8, 64, 4096, 7, 4097, 1.5)),
+        async (b, r, d, far, inclination, distance, points) => {
+          const defl: Record<string, unknown> = { body: b, ray: r };
+          if (d !== undefined) defl.direction = d;
+          if ((await postAndCheck('/v1/light/deflection', defl)) === 200) computed++;
+          if ((await postAndCheck('/v1/light/delay', { body: b, from: '1 AU', to: far, ray: r })) === 200) computed++;
+          const view: Record<string, unknown> = { body: b, inclination };
+          if (distance !== undefined) view.distance = distance;
+          if (points !== undefined) view.points = points;
+          if ((await postAndCheck('/v1/shadow', view)) === 200) computed++;
+        },
+      ),
+      RUNS(200),
     );
     expect(computed).toBeGreaterThan(5);
   });

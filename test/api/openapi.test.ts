@@ -177,6 +177,10 @@ describe('GET /v1/quantities', () => {
       await app.inject({ method: 'POST', url: '/v1/proper-time', payload: { body: { mass: '1 Msun' }, interval: { kind: 'freeFall', from: '10 rg', to: '3 rg', start: 'rest' } } })
     ).json<Json>();
     const orbit = (await app.inject({ method: 'GET', url: '/v1/orbits/circular?mass=1%20Msun&r=10%20rg' })).json<{ quantities: Json }>();
+    const light = async (url: string, payload: object) => (await app.inject({ method: 'POST', url, payload })).json<Json>();
+    const deflection = await light('/v1/light/deflection', { body: 'sun', ray: { closestApproach: '1 Rsun' } });
+    const delay = await light('/v1/light/delay', { body: 'sun', from: '1 AU', to: '1.5 AU', ray: { closestApproach: '1 Rsun' } });
+    const shadow = await light('/v1/shadow', { body: { mass: '1 Msun' }, inclination: '17 deg', distance: '1 kpc', points: 8 });
     /** Every key that occurs anywhere in a document. */
     const keys = (doc: unknown, out = new Set<string>()): Set<string> => {
       if (doc && typeof doc === 'object') for (const [k, v] of Object.entries(doc)) (out.add(k), keys(v, out));
@@ -188,6 +192,9 @@ describe('GET /v1/quantities', () => {
       '/v1/clocks': keys(clocks),
       '/v1/proper-time': keys([properTime, fall]),
       '/v1/orbits/circular': new Set(Object.keys(orbit.quantities)),
+      '/v1/light/deflection': keys(deflection),
+      '/v1/light/delay': keys(delay),
+      '/v1/shadow': keys(shadow),
     };
     for (const e of catalogue) {
       expect(byEndpoint[e.endpoint], `${e.name}: unknown endpoint ${e.endpoint}`).toBeDefined();
