@@ -113,8 +113,36 @@ function at<T>(path: string, fn: () => T): T {
   }
 }
 
-function read(input: number | string, dim: Dimension, path: string, scale?: { rg: number; tg: number }): number {
+/** A client quantity in SI; 400 naming the field when it cannot be read as that dimension. */
+export function readQuantity(input: number | string, dim: Dimension, path: string, scale?: { rg: number; tg: number }): number {
   return at(path, () => toSI(input, dim, scale));
+}
+const read = readQuantity;
+
+/**
+ * A client length as { si (m), geometric (units of GM/c²) } — exact for lengths given in rg — that
+ * must be positive (or ≥ 0 with `allowZero`) and within the documented limit; 400 if unreadable, 422
+ * outside that range.
+ */
+export function readLength(
+  input: number | string,
+  path: string,
+  scale: { rg: number; tg: number },
+  allowZero = false,
+): { si: number; geometric: number } {
+  const l = at(path, () => toLength(input, scale));
+  if (!(allowZero ? l.geometric >= 0 : l.geometric > 0)) throw unphysical(path, `must be ${allowZero ? '≥ 0' : 'positive'}`);
+  if (!(l.geometric <= LIMITS.maxRadiusGeometric)) {
+    throw unphysical(path, `must not exceed ${LIMITS.maxRadiusGeometric} GM/c² (documented limit)`);
+  }
+  return l;
+}
+
+/** A client angle in rad that must lie in [lo, hi]; 400 if unreadable, 422 outside the range. */
+export function readAngle(input: number | string, path: string, lo: number, hi: number, range: string): number {
+  const x = read(input, 'angle', path);
+  if (!(x >= lo && x <= hi)) throw unphysical(path, `must lie in ${range}`);
+  return x;
 }
 
 function familyOf(a: number, q: number): Family {

@@ -7,8 +7,7 @@ import { invalid, ProblemError, unphysical } from '../errors.js';
 import { deflection, LIGHT_REASONS, type RayInput } from '../physics/deflection.js';
 import { shapiroDelay } from '../physics/delay.js';
 import { distantAngularSize, shadow, staticObserverShadowRadius } from '../physics/shadow.js';
-import { QuantityError, toLength, toSI } from '../units/quantity.js';
-import { bodyInput, normalizeBody, quantityInput, type Body } from './inputs.js';
+import { bodyInput, normalizeBody, quantityInput, readAngle, readLength, type Body } from './inputs.js';
 import { bodyEcho, bodyEchoSchema, bodyNotes, service, serviceStamp } from './responses.js';
 import type { ComputeRoute } from './route.js';
 
@@ -23,16 +22,7 @@ const rayInput = z
   .meta({ id: 'Ray', description: 'Give exactly one of impactParameter and closestApproach.' });
 type RayIn = z.infer<typeof rayInput>;
 
-function length(body: Body, v: number | string, path: string): { si: number; geometric: number } {
-  try {
-    const l = toLength(v, body);
-    if (!(l.geometric > 0 && l.geometric <= 1e60)) throw unphysical(path, 'must be positive (and ≤ 1e60 GM/c²)');
-    return l;
-  } catch (err) {
-    if (err instanceof QuantityError) throw invalid(path, err.message);
-    throw err;
-  }
-}
+const length = (body: Body, v: number | string, path: string) => readLength(v, path, body);
 
 function ray(body: Body, r: RayIn, path: string): RayInput {
   if ((r.impactParameter === undefined) === (r.closestApproach === undefined)) {
@@ -262,14 +252,7 @@ export type ShadowResponse = z.infer<typeof shadowResponse>;
 export function computeShadow(input: ShadowRequest): ShadowResponse {
   const body = normalizeBody(input.body);
   if (body.radius !== null) throw unphysical('/body', 'a body with a surface casts no black-hole shadow; omit the radius for a black hole');
-  let inc: number;
-  try {
-    inc = toSI(input.inclination, 'angle');
-  } catch (err) {
-    if (err instanceof QuantityError) throw invalid('/inclination', err.message);
-    throw err;
-  }
-  if (!(inc >= 0 && inc <= Math.PI)) throw unphysical('/inclination', 'the inclination must lie in [0°, 180°]');
+  const inc = readAngle(input.inclination, '/inclination', 0, Math.PI, '[0°, 180°]');
   const sh = shadow(body.spacetime, inc, input.points ?? 256);
   if (!sh.ok) throw unphysical(sh.reason === 'invalidPointCount' ? '/points' : '/body', sh.message);
   const notes = bodyNotes(body);

@@ -7,8 +7,7 @@ import { z } from 'zod';
 import { invalid, unphysical } from '../errors.js';
 import { stationaryObserver, distantObserver, type Observer, type ObserverSpec } from '../physics/observers.js';
 import { C } from '../units/constants.js';
-import { QuantityError, toSI } from '../units/quantity.js';
-import { normalizePoint, pointInput, quantityInput, type Body, type Point } from './inputs.js';
+import { normalizePoint, pointInput, quantityInput, readQuantity, type Body, type Point } from './inputs.js';
 import { pointEcho, pointEchoSchema } from './responses.js';
 import { region } from '../physics/spacetime.js';
 
@@ -67,12 +66,7 @@ export function normalizeObserver(input: ObserverInput, body: Body, path: string
     case 'rotating': {
       let omega: number;
       if (input.angularVelocity !== undefined) {
-        try {
-          omega = toSI(input.angularVelocity, 'angularVelocity');
-        } catch (err) {
-          if (err instanceof QuantityError) throw invalid(`${path}/angularVelocity`, err.message);
-          throw err;
-        }
+        omega = readQuantity(input.angularVelocity, 'angularVelocity', `${path}/angularVelocity`);
       } else if (body.rotationRate !== null) {
         omega = body.rotationRate;
       } else {

@@ -15,7 +15,6 @@ import {
 } from '../physics/precession.js';
 import { JULIAN_YEAR } from '../units/constants.js';
 import { toQuantity } from '../units/convert.js';
-import { QuantityError, toLength, toSI } from '../units/quantity.js';
 import {
   bodyInput,
   bodyPointFromQuery,
@@ -25,7 +24,9 @@ import {
   pointInput,
   queryPath,
   quantityInput,
-  type Body,
+  readAngle,
+  readLength,
+  readQuantity,
 } from './inputs.js';
 import { bodyEcho, bodyEchoSchema, bodyNotes, pointEcho, pointEchoSchema, quantityValue, service, serviceStamp } from './responses.js';
 import type { ComputeRoute } from './route.js';
@@ -206,38 +207,21 @@ export type PrecessionResponse = z.infer<typeof precessionResponse>;
 const ARCSEC = Math.PI / (180 * 3600);
 const CENTURY = 100 * JULIAN_YEAR;
 
-function readField(input: number | string, dim: 'angle' | 'time', path: string, body: Body): number {
-  try {
-    return toSI(input, dim, body);
-  } catch (err) {
-    if (err instanceof QuantityError) throw invalid(path, err.message);
-    throw err;
-  }
-}
-
 export function computePrecession(input: PrecessionRequest): PrecessionResponse {
   const body = normalizeBody(input.body);
   const o = input.orbit;
-  let A: { si: number; geometric: number };
-  try {
-    A = toLength(o.semiMajorAxis, body);
-  } catch (err) {
-    if (err instanceof QuantityError) throw invalid('/orbit/semiMajorAxis', err.message);
-    throw err;
-  }
+  const A = readLength(o.semiMajorAxis, '/orbit/semiMajorAxis', body);
   const e = o.eccentricity ?? 0;
-  if (!(A.geometric > 0) || !(A.geometric <= 1e60)) throw unphysical('/orbit/semiMajorAxis', 'the semi-major axis must be positive (≤ 1e60 GM/c²)');
   if (A.geometric * (1 - e) < 100) {
     throw unphysical('/orbit/semiMajorAxis', 'weak-field formulas need the periapsis far outside the body\'s gravitational radius (a(1 − e) ≥ 100 GM/c²); use /v1/orbits/circular in strong fields');
   }
   if (body.radius !== null && A.si * (1 - e) < body.radius) {
     throw unphysical('/orbit/semiMajorAxis', `the periapsis ${A.si * (1 - e)} m lies below the body's surface (radius ${body.radius} m)`);
   }
-  const inclination = o.inclination === undefined ? 0 : readField(o.inclination, 'angle', '/orbit/inclination', body);
-  if (!(inclination >= 0 && inclination <= Math.PI)) throw unphysical('/orbit/inclination', 'the inclination must lie in [0°, 180°]');
+  const inclination = o.inclination === undefined ? 0 : readAngle(o.inclination, '/orbit/inclination', 0, Math.PI, '[0°, 180°]');
   let periodGeo: number | undefined;
   if (o.period !== undefined) {
-    const p = readField(o.period, 'time', '/orbit/period', body);
+    const p = readQuantity(o.period, 'time', '/orbit/period', body);
     if (!(p > 0)) throw unphysical('/orbit/period', 'the period must be positive');
     periodGeo = p / body.tg;
   }

@@ -8,8 +8,7 @@ import { ProblemError, invalid, unphysical } from '../errors.js';
 import { FALL_REASONS, freeFall, type FallStart, type FreeFall, type FreeFallRefused } from '../physics/free-fall.js';
 import { circularOrbitRevolutions, stationaryFarAwayTime, stationaryProperTime } from '../physics/proper-time.js';
 import { region } from '../physics/spacetime.js';
-import { QuantityError, toLength, toSI, type Dimension } from '../units/quantity.js';
-import { bodyInput, normalizeBody, normalizePoint, pointInput, quantityInput, type Body } from './inputs.js';
+import { bodyInput, normalizeBody, normalizePoint, pointInput, quantityInput, readAngle, readLength, readQuantity, type Body } from './inputs.js';
 import { normalizeObserver, observerEcho, observerEchoSchema, observerInput } from './observer.js';
 import { bodyEcho, bodyEchoSchema, bodyNotes, CAUTION, pointEchoSchema, pointEcho, service, serviceStamp } from './responses.js';
 import type { ComputeRoute } from './route.js';
@@ -99,15 +98,6 @@ function seconds(geometric: number | null, body: Body, reason?: string): Time {
   return out;
 }
 
-function read(input: number | string, dim: Dimension, path: string, body: Body): number {
-  try {
-    return toSI(input, dim, body);
-  } catch (err) {
-    if (err instanceof QuantityError) throw invalid(path, err.message);
-    throw err;
-  }
-}
-
 const FALL_PATHS: Record<FreeFallRefused['reason'], string> = {
   invalidInput: '/interval',
   unsupportedGeometry: '/interval/theta',
@@ -122,31 +112,23 @@ type FallInput = z.infer<typeof freeFallInterval>;
 
 function computeFall(body: Body, f: FallInput): Omit<ProperTimeResponse, 'service' | 'body' | 'notes'> & { notes: string[] } {
   const radius = (v: number | string, path: string) => {
-    try {
-      const r = toLength(v, body);
-      if (!(r.geometric >= 0)) throw unphysical(path, 'radii must be ≥ 0');
-      if (body.radius !== null && r.si < body.radius) {
-        throw unphysical(path, `r = ${r.si} m lies below the body's surface (radius ${body.radius} m)`);
-      }
-      if (r.geometric > 1e60) throw unphysical(path, 'r must not exceed 1e60 GM/c² (documented limit)');
-      return r;
-    } catch (err) {
-      if (err instanceof QuantityError) throw invalid(path, err.message);
-      throw err;
+    const r = readLength(v, path, body, true);
+    if (body.radius !== null && r.si < body.radius) {
+      throw unphysical(path, `r = ${r.si} m lies below the body's surface (radius ${body.radius} m)`);
     }
+    return r;
   };
   const r1 = radius(f.from, '/interval/from');
   const r2 = radius(f.to, '/interval/to');
   if (!(r1.geometric > 0)) throw unphysical('/interval/from', 'the start radius must be positive');
   let theta = Math.PI / 2;
   if (f.theta !== undefined) {
-    theta = read(f.theta, 'angle', '/interval/theta', body);
-    if (!(theta >= 0 && theta <= Math.PI)) throw unphysical('/interval/theta', 'theta must lie in [0, π]');
+    theta = readAngle(f.theta, '/interval/theta', 0, Math.PI, '[0, π]');
   }
   let start: FallStart;
   if (f.start === 'launch') {
     if (f.speed === undefined) throw invalid('/interval/speed', 'a launch needs a speed');
-    const v = read(f.speed, 'speed', '/interval/speed', body) / 299_792_458;
+    const v = readQuantity(f.speed, 'speed', '/interval/speed') / 299_792_458;
     if (!(v >= 0 && v < 1)) throw unphysical('/interval/speed', 'the launch speed must lie in [0, c)');
     start = { kind: 'launch', speed: v, direction: f.direction ?? 'inward' };
   } else {
@@ -208,7 +190,7 @@ export function computeProperTime(input: ProperTimeRequest): ProperTimeResponse 
     }
     const given = iv.farAwayTime ?? iv.properTime!;
     const path = iv.farAwayTime !== undefined ? '/interval/farAwayTime' : '/interval/properTime';
-    const t = read(given, 'time', path, body);
+    const t = readQuantity(given, 'time', path, body);
     if (!(t >= 0)) throw unphysical(path, 'the interval must not be negative');
     const geo = t / body.tg;
     const s = iv.farAwayTime !== undefined ? stationaryProperTime(n.observer, geo) : stationaryFarAwayTime(n.observer, geo);
