@@ -9,7 +9,25 @@
  */
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { formatTable, machineLine, runProgram, TIMING, timePerCall, type FallCase, type Timing } from './harness.js';
+import type { FreeFallOptions, FreeFallRequest } from '../src/physics/free-fall.js';
+import type { KerrNewman } from '../src/physics/spacetime.js';
+import { runProgram } from './processes.js';
+import { formatTable, formatTiming, machineLine, timePerCall, timingArguments, timingDescription, type Timing } from './timing.js';
+
+/** One in-process case: a call of freeFall (src/physics/free-fall.ts), timed by timePerCall. */
+export interface FallCase {
+  name: string;
+  spacetime: KerrNewman;
+  request: FreeFallRequest;
+  options: FreeFallOptions;
+  /** The method freeFall must choose here; quadrature cases are held to the per-call target. */
+  method: 'quadrature' | 'closedForm';
+  /**
+   * The same proper-time integral for the scipy rival (bench/rivals/scipy_fall.py), a = 0 only:
+   * τ = ∫ dr/√(E² − f(r)) from rMin to rMax, f = 1 − 2/r + q²/r², at relative tolerance epsrel.
+   */
+  rival?: { q: number; energy: number; rMin: number; rMax: number; epsrel: number };
+}
 
 type FreeFallModule = typeof import('../src/physics/free-fall.js');
 /** The compiled module timed here; its source is src/physics/free-fall.ts. */
@@ -21,12 +39,7 @@ const AGREEMENT = 1e-10;
 const RIVAL_SCRIPT = 'bench/rivals/scipy_fall.py';
 const RIVAL_TIMEOUT_MS = 300_000;
 
-interface RivalResult {
-  microseconds: number;
-  min: number;
-  max: number;
-  callsPerRound: number;
-  rounds: number;
+interface RivalResult extends Timing {
   value: number;
   abserr: number;
   neval: number;
@@ -53,7 +66,7 @@ async function runRival(root: string, rival: NonNullable<FallCase['rival']>): Pr
   const args = [
     RIVAL_SCRIPT,
     ...['--q', rival.q, '--energy', rival.energy, '--r-min', rival.rMin, '--r-max', rival.rMax, '--epsrel', rival.epsrel].map(String),
-    ...['--min-calls', TIMING.minCalls, '--round-seconds', TIMING.roundSeconds, '--rounds', TIMING.rounds].map(String),
+    ...timingArguments(),
   ];
   const out = await runProgram('python3', args, { cwd: root, timeoutMs: RIVAL_TIMEOUT_MS });
   return JSON.parse(out) as RivalResult;
@@ -93,7 +106,6 @@ function rivalLine(rows: readonly FallRow[]): string {
 }
 
 export function fallTable(rows: readonly FallRow[], loadAtStart: number): string {
-  const us = (x: number) => x.toFixed(x < 10 ? 3 : 2);
   const body = rows.map(({ c, properTime, evaluations, ours, rival }) => {
     let rivalCells = ['—', '—', '—'];
     if (rival instanceof Error) {
@@ -101,7 +113,7 @@ export function fallTable(rows: readonly FallRow[], loadAtStart: number): string
     } else if (rival) {
       const rel = Math.abs(properTime - rival.value) / Math.abs(rival.value);
       rivalCells = [
-        `${us(rival.microseconds)} (${us(rival.min)}–${us(rival.max)})`,
+        formatTiming(rival),
         (rival.microseconds / ours.microseconds).toFixed(2),
         `${rel <= AGREEMENT ? 'yes' : 'NO'} (${rel.toExponential(1)})`,
       ];
@@ -110,7 +122,7 @@ export function fallTable(rows: readonly FallRow[], loadAtStart: number): string
       c.name,
       c.method === 'quadrature' ? `quadrature, ${evaluations} evals` : 'closed form',
       properTime.toPrecision(16),
-      `${us(ours.microseconds)} (${us(ours.min)}–${us(ours.max)})`,
+      formatTiming(ours),
       ours.callsPerRound.toLocaleString('en-US'),
       ...rivalCells,
       c.method === 'quadrature' ? (ours.microseconds < TARGET_MICROSECONDS ? 'yes' : 'no') : '—',
@@ -120,8 +132,7 @@ export function fallTable(rows: readonly FallRow[], loadAtStart: number): string
   const header = [
     machineLine(),
     `in-process free fall: freeFall from ${MODULE} (the compiled build), called in this process before any server starts · ` +
-      `${TIMING.minCalls.toLocaleString('en-US')}-call warm-up, then ${TIMING.rounds} rounds of ≥ ${TIMING.minCalls.toLocaleString('en-US')} calls (≥ ${TIMING.roundSeconds} s each); ` +
-      `µs/call is the median round, fastest–slowest in brackets · load average at start ${loadAtStart.toFixed(2)}`,
+      `${timingDescription()} · load average at start ${loadAtStart.toFixed(2)}`,
     'each call computes τ and the river time T in one vector quadrature (relative tolerance 1e-12) after checking the path; r in GM/c², τ in GM/c³',
     rivalLine(rows),
     `target: < ${TARGET_MICROSECONDS} µs per quadrature call; scipy/ours > 1: ours is faster; agreement: |τ_ours − τ_scipy|/τ_scipy ≤ ${AGREEMENT.toExponential(0)}`,

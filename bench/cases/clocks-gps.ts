@@ -3,7 +3,7 @@
  * (A) against one on a circular orbit of radius 26 561.75 km (B, the GPS semi-major axis).
  * Target: a clock comparison costs no more than /v1/local.
  */
-import type { BenchCase } from '../harness.js';
+import type { BenchCase } from '../processes.js';
 import localGet from './local-get.js';
 
 const clocksGps: BenchCase = {

@@ -2,7 +2,7 @@
  * In-process: freeFall in the equatorial plane of a Kerr hole with a/M = 0.9, released from rest
  * (relative to the ZAMO) at r₁ = 10 down to r₂ = 1, between the horizons (quadrature).
  */
-import type { FallCase } from '../harness.js';
+import type { FallCase } from '../fall.js';
 
 const fallKerrEquator: FallCase = {
   name: 'Kerr a=0.9 equator, rest at 10 → 1',

@@ -3,7 +3,7 @@
  * passing r₁ = 10, down to r₂ = 0.5, between the horizons (quadrature). The scipy rival integrates the
  * same proper time, τ = ∫ dr/√(1 − f(r)) over [0.5, 10].
  */
-import type { FallCase } from '../harness.js';
+import type { FallCase } from '../fall.js';
 
 const q = 0.5;
 const r1 = 10;

@@ -1,5 +1,5 @@
 /** In-process: freeFall in Schwarzschild from rest at r₁ = 10 down to r₂ = 1 (the cycloid, closed form). */
-import type { FallCase } from '../harness.js';
+import type { FallCase } from '../fall.js';
 
 const fallSchwarzschildRest: FallCase = {
   name: 'Schwarzschild, rest at 10 → 1',

@@ -1,5 +1,5 @@
 /** GET /v1/local for the Earth preset at 400 km altitude (a body with a surface). */
-import type { BenchCase } from '../harness.js';
+import type { BenchCase } from '../processes.js';
 
 const localEarth: BenchCase = {
   name: 'GET /v1/local (earth, 400 km)',

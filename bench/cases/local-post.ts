@@ -1,5 +1,5 @@
 /** POST /v1/local with the same body and point as local-get.ts, as a JSON body. */
-import type { BenchCase } from '../harness.js';
+import type { BenchCase } from '../processes.js';
 
 const localPost: BenchCase = {
   name: 'POST /v1/local (Kerr, 6 rg)',

@@ -6,9 +6,8 @@ function) on the proper time of a radial fall in Reissner–Nordström, in units
 
     tau = integral from r_min to r_max of dr / sqrt(E^2 - f(r)),   f(r) = 1 - 2/r + q^2/r^2,
 
-with epsabs = 0 and the given epsrel. Timing follows bench/harness.ts (timePerCall): a warm-up of
---min-calls calls that also sizes the rounds to last about --round-seconds each, then --rounds rounds
-of that many calls; the median round's mean time per call is reported.
+with epsabs = 0 and the given epsrel. Timing as in bench/timing.ts (timePerCall), through
+rival_timing.py beside this file.
 
 Prints one JSON object on stdout: microseconds (median), min and max (fastest and slowest round, in
 microseconds per call), callsPerRound, rounds, value, abserr and neval (of one call), and the
@@ -18,12 +17,12 @@ import argparse
 import json
 import math
 import platform
-import statistics
-import time
 
 import numpy
 import scipy
 from scipy.integrate import quad
+
+from rival_timing import add_timing_arguments, time_per_call
 
 
 def main() -> None:
@@ -33,9 +32,7 @@ def main() -> None:
     ap.add_argument("--r-min", type=float, required=True)
     ap.add_argument("--r-max", type=float, required=True)
     ap.add_argument("--epsrel", type=float, required=True)
-    ap.add_argument("--min-calls", type=int, required=True)
-    ap.add_argument("--round-seconds", type=float, required=True)
-    ap.add_argument("--rounds", type=int, required=True)
+    add_timing_arguments(ap)
     args = ap.parse_args()
 
     e2 = args.energy * args.energy
@@ -53,28 +50,10 @@ def main() -> None:
     value, abserr, info = full[0], full[1], full[2]
     warning = full[3] if len(full) > 3 else None
 
-    def run(n: int) -> float:
-        sink = 0.0
-        start = time.perf_counter()
-        for _ in range(n):
-            sink += once()
-        elapsed = time.perf_counter() - start
-        if not math.isfinite(sink):
-            raise SystemExit("quad returned a value that is not finite")
-        return elapsed / n  # seconds per call
-
-    warm = run(args.min_calls)
-    calls = max(args.min_calls, math.ceil(args.round_seconds / max(warm, 1e-12)))
-    per_call = [run(calls) * 1e6 for _ in range(args.rounds)]
-
     print(
         json.dumps(
             {
-                "microseconds": statistics.median(per_call),
-                "min": min(per_call),
-                "max": max(per_call),
-                "callsPerRound": calls,
-                "rounds": args.rounds,
+                **time_per_call(once, args),
                 "value": value,
                 "abserr": abserr,
                 "neval": info["neval"],

@@ -1,18 +1,14 @@
 /**
- * What every benchmark case shares: starting a server or a helper program as a child process (always
- * stopped again, also on errors and signals), one autocannon measurement, timing an in-process
- * function, and printing a table with the machine it ran on.
+ * Child processes and load for the benchmarks: starting a server or a helper program (a Python rival)
+ * as a child process, always stopped again, also on errors and signals; one autocannon measurement
+ * of an HTTP case against a server. Timing in this process and the printed tables are ./timing.ts.
  *
  * Servers and the load generator run in different processes, so on a small machine they take
  * different cores. Traffic goes to 127.0.0.1 only.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
-import { arch, availableParallelism, cpus, platform, totalmem } from 'node:os';
-import { performance } from 'node:perf_hooks';
 import autocannon from 'autocannon';
-import type { FreeFallOptions, FreeFallRequest } from '../src/physics/free-fall.js';
-import type { KerrNewman } from '../src/physics/spacetime.js';
 
 export const HOST = '127.0.0.1';
 export const CONNECTIONS = 50;
@@ -39,21 +35,6 @@ export interface BenchCase {
    * that of `relativeTo` measured in the same run, without errors.
    */
   goal?: { relativeTo: BenchCase; atLeast: number; statement: string };
-}
-
-/** One in-process case: a call of freeFall (src/physics/free-fall.ts), timed by timePerCall. */
-export interface FallCase {
-  name: string;
-  spacetime: KerrNewman;
-  request: FreeFallRequest;
-  options: FreeFallOptions;
-  /** The method freeFall must choose here; quadrature cases are held to the per-call target. */
-  method: 'quadrature' | 'closedForm';
-  /**
-   * The same proper-time integral for the scipy rival (bench/rivals/scipy_fall.py), a = 0 only:
-   * τ = ∫ dr/√(E² − f(r)) from rMin to rMax, f = 1 − 2/r + q²/r², at relative tolerance epsrel.
-   */
-  rival?: { q: number; energy: number; rMin: number; rMax: number; epsrel: number };
 }
 
 export interface Measurement {
@@ -280,63 +261,4 @@ export async function measure(server: Server, c: BenchCase, seconds: number, war
     errors: result.errors,
     non2xx: result.non2xx,
   };
-}
-
-/** How an in-process function is timed; bench/rivals/scipy_fall.py follows the same procedure. */
-export const TIMING = {
-  /** Calls per round, at least; raised so that one round lasts `roundSeconds`. */
-  minCalls: 20_000,
-  roundSeconds: 0.25,
-  rounds: 5,
-} as const;
-
-export interface Timing {
-  /** Median over the rounds of the mean time per call, µs. */
-  microseconds: number;
-  /** Fastest and slowest round, µs per call. */
-  min: number;
-  max: number;
-  callsPerRound: number;
-  rounds: number;
-}
-
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const mid = s.length >> 1;
-  return s.length % 2 === 1 ? (s[mid] as number) : ((s[mid - 1] as number) + (s[mid] as number)) / 2;
-}
-
-/**
- * Times `fn` in this process: a warm-up of TIMING.minCalls calls (which also sizes the rounds so
- * that each lasts about TIMING.roundSeconds), then TIMING.rounds rounds of the same number of calls.
- * `fn` returns a number that is summed and checked, so its work cannot be dropped as unused.
- */
-export function timePerCall(fn: () => number): Timing {
-  let sink = 0;
-  const run = (n: number) => {
-    const start = performance.now();
-    for (let i = 0; i < n; i++) sink += fn();
-    return (performance.now() - start) / n; // ms per call
-  };
-  const warm = run(TIMING.minCalls);
-  const calls = Math.max(TIMING.minCalls, Math.ceil((TIMING.roundSeconds * 1000) / Math.max(warm, 1e-6)));
-  const perCall: number[] = [];
-  for (let r = 0; r < TIMING.rounds; r++) perCall.push(run(calls) * 1000);
-  if (!Number.isFinite(sink)) throw new Error('the timed function returned a value that is not finite');
-  return { microseconds: median(perCall), min: Math.min(...perCall), max: Math.max(...perCall), callsPerRound: calls, rounds: TIMING.rounds };
-}
-
-/** Node version and machine, the first line of every table. */
-export function machineLine(): string {
-  const gib = (totalmem() / 2 ** 30).toFixed(1);
-  return `spacetide bench — Node ${process.version} · ${cpus()[0]?.model.trim() ?? 'unknown CPU'} · ${availableParallelism()} cores · ${gib} GiB RAM · ${platform()} ${arch()}`;
-}
-
-/** A plain-text table: `header` lines, then the columns (first left-aligned, the rest right-aligned). */
-export function formatTable(header: string[], head: string[], body: string[][]): string {
-  const widths = head.map((h, i) => Math.max(h.length, ...body.map((r) => (r[i] ?? '').length)));
-  const line = (cells: string[]) =>
-    cells.map((cell, i) => (i === 0 ? cell.padEnd(widths[i] ?? 0) : cell.padStart(widths[i] ?? 0))).join('  ');
-  const rule = '-'.repeat(widths.reduce((a, w) => a + w + 2, -2));
-  return [...header, rule, line(head), rule, ...body.map(line), rule].join('\n');
 }
