@@ -11,6 +11,7 @@ import { registerQuantities } from './api/quantities.js';
 import { COMPUTE_ROUTES } from './api/registry.js';
 import { service } from './api/responses.js';
 import { registerComputeRoute } from './api/route.js';
+import { resultCachePlugin } from './cache/plugin.js';
 import { defaultConfig, type Config } from './config.js';
 import { installErrorHandling, problemBody, sendProblem } from './error-handler.js';
 import { PROBLEMS, problemTypeUri, type ProblemCode } from './errors.js';
@@ -47,7 +48,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   });
   installErrorHandling(app);
 
-  for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route);
+  await app.register(resultCachePlugin, { maxBytes: config.CACHE_MAX_BYTES });
+  for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route, app.resultCache);
   registerQuantities(app);
 
   app.get('/problems/:code', async (request, reply) => {

@@ -6,6 +6,8 @@ import { z } from 'zod';
 
 const port = z.coerce.number().int().min(0).max(65_535);
 const positiveInt = z.coerce.number().int().positive();
+/** Largest result-cache bound accepted: 16 GiB, beyond any heap a Node process is given. */
+const MAX_CACHE_BYTES = 16 * 1024 ** 3;
 
 const schema = z.object({
   PORT: port.default(8080),
@@ -17,6 +19,13 @@ const schema = z.object({
   REQUEST_TIMEOUT_MS: positiveInt.max(600_000).default(30_000),
   /** Time allowed for in-flight requests on shutdown, ms. */
   SHUTDOWN_GRACE_MS: positiveInt.max(600_000).default(10_000),
+  /** Bound of the in-memory result cache, bytes (128 MiB); 0 switches the cache off. */
+  CACHE_MAX_BYTES: z.coerce
+    .number({ error: 'CACHE_MAX_BYTES must be a number of bytes (0 switches the cache off)' })
+    .int({ error: 'CACHE_MAX_BYTES must be a whole number of bytes' })
+    .min(0, { error: 'CACHE_MAX_BYTES must not be negative (0 switches the cache off)' })
+    .max(MAX_CACHE_BYTES, { error: `CACHE_MAX_BYTES must not exceed ${MAX_CACHE_BYTES} (16 GiB)` })
+    .default(134_217_728),
 });
 
 export type Config = z.infer<typeof schema>;

@@ -2,6 +2,7 @@
  * /v1/local — every flow and clock quantity at one point around one body.
  */
 import { z } from 'zod';
+import { canonicalBody, canonicalPoint } from '../cache/key.js';
 import { CATALOGUE_BY_NAME } from '../catalogue.js';
 import { evaluateLocal, LOCAL_QUANTITIES } from '../physics/local.js';
 import { toQuantity } from '../units/convert.js';
@@ -98,6 +99,10 @@ export const localRoute: ComputeRoute<LocalRequest, z.infer<typeof bodyPointQuer
   get: { query: bodyPointQuery, toInput: bodyPointFromQuery, pathFor: queryPath },
   response: localResponse,
   compute: computeLocal,
+  canonical: (input) => {
+    const body = normalizeBody(input.body);
+    return { body: canonicalBody(body), point: canonicalPoint(normalizePoint(input.point, body)) };
+  },
 };
 
 // Every local quantity must be in the catalogue (checked at load; a missing entry is a programming error).

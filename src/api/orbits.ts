@@ -5,6 +5,7 @@
  * geodetic and frame-dragging precessions of a gyroscope on a circular orbit.
  */
 import { z } from 'zod';
+import { canonicalBody, canonicalPoint } from '../cache/key.js';
 import { invalid, unphysical } from '../errors.js';
 import { circularOrbit } from '../physics/orbits.js';
 import {
@@ -155,6 +156,11 @@ export const circularRoute: ComputeRoute<CircularRequest, z.infer<typeof circula
   },
   response: circularResponse,
   compute: computeCircular,
+  canonical: (input) => {
+    const body = normalizeBody(input.body);
+    const point = normalizePoint(input.point, body);
+    return { body: canonicalBody(body), point: canonicalPoint(point), direction: input.direction ?? 'prograde' };
+  },
 };
 
 // ---- weak-field precessions ----------------------------------------------------------------------

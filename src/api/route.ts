@@ -1,11 +1,20 @@
 /**
  * Compute routes: one definition gives the POST (JSON body) route, the optional GET (query string)
- * route, request validation with zod, and the OpenAPI description. Handlers receive validated input
- * and return a plain object; errors are thrown as ProblemError and rendered by the error handler.
+ * route, request validation with zod, the OpenAPI description, and caching: each validated request
+ * gets a canonical key (cache/key.ts), its serialised 200 response is kept in the result cache and
+ * served byte-identical on repeats, carries a strong ETag and Cache-Control, and a matching
+ * If-None-Match gets 304. Handlers receive validated input and return a plain object; errors are
+ * thrown as ProblemError, rendered by the error handler, and never cached.
  */
+import fastJson from 'fast-json-stringify';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { z } from 'zod';
+import type { CoalescingCache } from '../cache/coalesce.js';
+import { etagFor, GET_CACHE_CONTROL, ifNoneMatchMatches, JSON_CONTENT_TYPE, POST_CACHE_CONTROL } from '../cache/http.js';
+import { cacheKey } from '../cache/key.js';
+import type { CacheEntry } from '../cache/types.js';
 import { ProblemError, type FieldError } from '../errors.js';
+import { VERSION } from '../version.js';
 
 export interface GetBinding<TQuery, TIn> {
   /** Schema of the query string (all values arrive as strings). */
@@ -27,6 +36,13 @@ export interface ComputeRoute<TIn, TQuery = unknown> {
   response: z.ZodType;
   /** Computes the response document from validated input. */
   compute: (input: TIn) => unknown;
+  /**
+   * The input in canonical form for the cache key: normalised, defaults applied, exact doubles.
+   * Inputs with equal canonical forms must give byte-identical responses. It may throw the same
+   * ProblemErrors as compute (they are rendered, not cached). Without it the validated input itself,
+   * stably serialised, is the canonical form.
+   */
+  canonical?: (input: TIn) => unknown;
 }
 
 /** Converts zod issues into problem-details field errors; `prefix` roots the paths. */
@@ -65,29 +81,47 @@ function remapPaths(err: unknown, pathFor: (p: string) => string): unknown {
 }
 
 /**
- * JSON Schema of the success response, handed to fastify so that fast-json-stringify serialises it
- * (about twice as fast as JSON.stringify for these documents); it also drops anything undeclared.
+ * JSON Schema of the success response, from which fast-json-stringify compiles the serialiser (about
+ * twice as fast as JSON.stringify for these documents); it also drops anything undeclared. It is the
+ * schema fastify compiled when it serialised these responses itself, so the bytes are the same.
  */
-function responseSchema(route: ComputeRoute<unknown, unknown>): Record<string, unknown> {
+export function responseSchema(route: ComputeRoute<unknown, unknown>): Record<string, unknown> {
   return z.toJSONSchema(route.response, { target: 'draft-7', io: 'output', unrepresentable: 'any' }) as Record<string, unknown>;
 }
 
-export function registerComputeRoute<TIn, TQuery>(app: FastifyInstance, route: ComputeRoute<TIn, TQuery>): void {
-  const schema = { response: { 200: responseSchema(route as ComputeRoute<unknown, unknown>) } };
-  app.post(route.path, { schema }, async (request: FastifyRequest, reply: FastifyReply) => {
+/**
+ * Registers the route's POST (and GET) handlers, answering through the result cache. Both methods
+ * build the same POST-shaped input, hence the same key: they share cache entries and ETags.
+ */
+export function registerComputeRoute<TIn, TQuery>(app: FastifyInstance, route: ComputeRoute<TIn, TQuery>, cache: CoalescingCache): void {
+  const serialize = fastJson(responseSchema(route as ComputeRoute<unknown, unknown>));
+  const canonical = route.canonical ?? ((input: TIn): unknown => input);
+
+  /** Key, 304 if the client holds this result, else the cached or freshly computed body. */
+  const respond = async (input: TIn, request: FastifyRequest, reply: FastifyReply, cacheControl: string): Promise<FastifyReply> => {
+    const key = cacheKey(VERSION, route.path, canonical(input));
+    const etag = etagFor(key);
+    if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) {
+      return reply.code(304).header('etag', etag).header('cache-control', cacheControl).send();
+    }
+    const entry = await cache.resolve(
+      key,
+      (): CacheEntry => ({ body: serialize(route.compute(input)), contentType: JSON_CONTENT_TYPE, etag }),
+    );
+    // Headers only on success: a problem response carries neither the ETag nor Cache-Control.
+    return reply.header('etag', entry.etag).header('cache-control', cacheControl).header('content-type', entry.contentType).send(entry.body);
+  };
+
+  app.post(route.path, async (request: FastifyRequest, reply: FastifyReply) => {
     const input = parseOr400(route.body, request.body);
-    reply.type('application/json');
-    return route.compute(input);
+    return respond(input, request, reply, POST_CACHE_CONTROL);
   });
   const get = route.get;
   if (get) {
-    app.get(route.path, { schema }, async (request: FastifyRequest, reply: FastifyReply) => {
+    app.get(route.path, async (request: FastifyRequest, reply: FastifyReply) => {
       try {
         const query = parseOr400(get.query, request.query ?? {});
-        const input = get.toInput(query);
-        const out = route.compute(input);
-        reply.type('application/json');
-        return out;
+        return await respond(get.toInput(query), request, reply, GET_CACHE_CONTROL);
       } catch (err) {
         throw remapPaths(err, get.pathFor);
       }

@@ -3,6 +3,7 @@
  * black hole's horizon, and for a body with a surface the values at its equator.
  */
 import { z } from 'zod';
+import { canonicalBody } from '../cache/key.js';
 import { horizonProperties } from '../physics/horizon.js';
 import { characteristicOrbits } from '../physics/orbits.js';
 import { evaluateLocal } from '../physics/local.js';
@@ -172,4 +173,5 @@ export const spacetimeRoute: ComputeRoute<SpacetimeRequest, z.infer<typeof bodyQ
   get: { query: bodyQuery, toInput: (q) => ({ body: bodyPointFromQuery(q).body }), pathFor: queryPath },
   response: spacetimeResponse,
   compute: computeSpacetime,
+  canonical: (input) => ({ body: canonicalBody(normalizeBody(input.body)) }),
 };

@@ -1,0 +1,71 @@
+/**
+ * The front every compute route talks to: identical requests that arrive together share one lookup
+ * (and, on a miss, one computation), whatever store sits behind it.
+ */
+import type { CacheEntry, CacheStats, ResultCache } from './types.js';
+
+/**
+ * Wraps a store with request coalescing: a Map of in-flight lookups keyed by the cache key. A request
+ * whose key is already in flight waits for that lookup instead of starting its own, and is counted in
+ * `coalesced`; so hits + misses + coalesced is the number of requests resolved, and misses is the
+ * number of computations.
+ */
+export class CoalescingCache implements ResultCache {
+  private readonly inFlight = new Map<string, Promise<CacheEntry>>();
+  private coalesced = 0;
+
+  constructor(readonly store: ResultCache) {}
+
+  /**
+   * The entry for key: joins an identical lookup in flight, else asks the store, else calls produce
+   * (synchronously; it may throw, and then every request that joined gets the same error and nothing
+   * is stored) and stores its result. A store that fails to read or write never fails the request.
+   */
+  resolve(key: string, produce: () => CacheEntry): Promise<CacheEntry> {
+    const pending = this.inFlight.get(key);
+    if (pending !== undefined) {
+      this.coalesced += 1;
+      return pending;
+    }
+    const lookup = this.lookup(key, produce);
+    this.inFlight.set(key, lookup);
+    const clear = (): void => {
+      if (this.inFlight.get(key) === lookup) this.inFlight.delete(key);
+    };
+    lookup.then(clear, clear);
+    return lookup;
+  }
+
+  /** Store first, then produce and store. */
+  private async lookup(key: string, produce: () => CacheEntry): Promise<CacheEntry> {
+    let hit: CacheEntry | undefined;
+    try {
+      hit = await this.store.get(key);
+    } catch {
+      hit = undefined; // the store is an optimisation: an unreadable one means compute
+    }
+    if (hit !== undefined) return hit;
+    const entry = produce();
+    try {
+      await this.store.set(key, entry);
+    } catch {
+      // an unwritable store only costs the next request a computation
+    }
+    return entry;
+  }
+
+  /** Reads the store directly (no coalescing). */
+  get(key: string): Promise<CacheEntry | undefined> {
+    return this.store.get(key);
+  }
+
+  /** Writes the store directly. */
+  set(key: string, entry: CacheEntry): Promise<void> {
+    return this.store.set(key, entry);
+  }
+
+  /** The store's counters with this front's coalesced count. */
+  stats(): CacheStats {
+    return { ...this.store.stats(), coalesced: this.coalesced };
+  }
+}

@@ -1,0 +1,94 @@
+/**
+ * The default store: an in-memory LRU bounded in bytes (lru-cache with maxSize and a size for each
+ * entry), and the store used when the cache is switched off (CACHE_MAX_BYTES=0).
+ */
+import { LRUCache } from 'lru-cache';
+import type { CacheEntry, CacheStats, ResultCache } from './types.js';
+
+/**
+ * Bytes charged to an entry beyond its strings: the LRU's slot arrays and index map, the entry
+ * object and its string headers. An estimate; it keeps many tiny entries from looking free.
+ */
+export const ENTRY_OVERHEAD_BYTES = 128;
+
+/**
+ * The size charged for one entry: the UTF-8 bytes of the body (what goes on the wire), plus the key,
+ * ETag and content type, plus ENTRY_OVERHEAD_BYTES. V8 holds a string with characters beyond Latin-1
+ * in two bytes per character, so the heap may hold up to about twice this for such bodies.
+ */
+export function entrySize(key: string, entry: CacheEntry): number {
+  return Buffer.byteLength(entry.body, 'utf8') + key.length + entry.etag.length + entry.contentType.length + ENTRY_OVERHEAD_BYTES;
+}
+
+/** In-memory LRU over at most maxBytes (entrySize each); counts hits, misses and evictions. */
+export class MemoryCache implements ResultCache {
+  private readonly lru: LRUCache<string, CacheEntry>;
+  private hits = 0;
+  private misses = 0;
+  private evictions = 0;
+
+  /** maxBytes: a positive whole number of bytes. An entry larger than it is not stored. */
+  constructor(readonly maxBytes: number) {
+    if (!Number.isSafeInteger(maxBytes) || maxBytes <= 0) throw new RangeError(`maxBytes must be a positive whole number, got ${maxBytes}`);
+    this.lru = new LRUCache<string, CacheEntry>({
+      maxSize: maxBytes,
+      sizeCalculation: (entry, key) => entrySize(key, entry),
+      dispose: (_entry, _key, reason) => {
+        if (reason === 'evict') this.evictions += 1;
+      },
+    });
+  }
+
+  /** The entry under key (and marks it most recently used), counting a hit or a miss. */
+  get(key: string): Promise<CacheEntry | undefined> {
+    const entry = this.lru.get(key);
+    if (entry === undefined) this.misses += 1;
+    else this.hits += 1;
+    return Promise.resolve(entry);
+  }
+
+  /** Stores the entry, evicting the least recently used ones until the total fits in maxBytes. */
+  set(key: string, entry: CacheEntry): Promise<void> {
+    this.lru.set(key, entry);
+    return Promise.resolve();
+  }
+
+  /** Counters and sizes; coalesced is 0 here (the coalescing front counts it). */
+  stats(): CacheStats {
+    return {
+      hits: this.hits,
+      misses: this.misses,
+      evictions: this.evictions,
+      coalesced: 0,
+      entries: this.lru.size,
+      bytes: this.lru.calculatedSize,
+      maxBytes: this.maxBytes,
+    };
+  }
+}
+
+/** The store when caching is off: keeps nothing, so every lookup is a miss. */
+export class DisabledCache implements ResultCache {
+  private misses = 0;
+
+  /** Always a miss. */
+  get(_key: string): Promise<CacheEntry | undefined> {
+    this.misses += 1;
+    return Promise.resolve(undefined);
+  }
+
+  /** Keeps nothing. */
+  set(_key: string, _entry: CacheEntry): Promise<void> {
+    return Promise.resolve();
+  }
+
+  /** Misses only; every size is 0. */
+  stats(): CacheStats {
+    return { hits: 0, misses: this.misses, evictions: 0, coalesced: 0, entries: 0, bytes: 0, maxBytes: 0 };
+  }
+}
+
+/** The configured store: an LRU of maxBytes, or the disabled store when maxBytes is 0. */
+export function createResultCache(maxBytes: number): ResultCache {
+  return maxBytes === 0 ? new DisabledCache() : new MemoryCache(maxBytes);
+}

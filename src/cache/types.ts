@@ -1,0 +1,43 @@
+/**
+ * The result cache's contract. The in-memory LRU (memory.ts) is the default store; a shared store
+ * (Redis, say) can replace it by implementing ResultCache, and the coalescing front (coalesce.ts)
+ * works over any of them.
+ */
+
+/** One cached response: the exact bytes sent with a 200, and the headers that describe them. */
+export interface CacheEntry {
+  /** The serialised response body, sent as is. */
+  body: string;
+  /** Content-Type of the body, e.g. "application/json; charset=utf-8". */
+  contentType: string;
+  /** The strong ETag, quoted (`"<hex>"`). */
+  etag: string;
+}
+
+/** Counters and sizes of a cache, for metrics. */
+export interface CacheStats {
+  /** Lookups answered from the store. */
+  hits: number;
+  /** Lookups the store could not answer (each one is a computation). */
+  misses: number;
+  /** Entries dropped to keep the store within maxBytes. */
+  evictions: number;
+  /** Requests that joined an identical lookup already in flight instead of starting their own. */
+  coalesced: number;
+  /** Entries held now. */
+  entries: number;
+  /** Bytes held now, as the store counts them (see memory.ts). */
+  bytes: number;
+  /** The bound on bytes; 0 when the store keeps nothing. */
+  maxBytes: number;
+}
+
+/** A store of computed responses keyed by the canonical request key (key.ts). */
+export interface ResultCache {
+  /** The entry under key, or undefined; counts a hit or a miss. */
+  get(key: string): Promise<CacheEntry | undefined>;
+  /** Stores the entry under key (a store may decline, e.g. an entry larger than its bound). */
+  set(key: string, entry: CacheEntry): Promise<void>;
+  /** Current counters and sizes. */
+  stats(): CacheStats;
+}

@@ -1,0 +1,92 @@
+/**
+ * The coalescing front: identical lookups in flight share one store read and one computation;
+ * errors reach every joined request and are never stored; a failing store never fails a request.
+ */
+import { describe, expect, it, vi } from 'vitest';
+import { CoalescingCache } from '../../src/cache/coalesce.js';
+import { MemoryCache } from '../../src/cache/memory.js';
+import type { CacheEntry, CacheStats, ResultCache } from '../../src/cache/types.js';
+
+const entry = (body: string): CacheEntry => ({ body, contentType: 'application/json; charset=utf-8', etag: '"k"' });
+
+/** A store whose reads wait until release() is called, so lookups overlap deterministically. */
+class SlowStore implements ResultCache {
+  readonly inner = new MemoryCache(1 << 20);
+  private gate: Promise<void>;
+  release!: () => void;
+  constructor() {
+    this.gate = new Promise((resolve) => (this.release = resolve));
+  }
+  async get(key: string): Promise<CacheEntry | undefined> {
+    await this.gate;
+    return this.inner.get(key);
+  }
+  set(key: string, e: CacheEntry): Promise<void> {
+    return this.inner.set(key, e);
+  }
+  stats(): CacheStats {
+    return this.inner.stats();
+  }
+}
+
+describe('CoalescingCache', () => {
+  it('twenty overlapping identical lookups read the store once and compute once', async () => {
+    const store = new SlowStore();
+    const cache = new CoalescingCache(store);
+    const produce = vi.fn(() => entry('{"x":1}'));
+    const all = Promise.all(Array.from({ length: 20 }, () => cache.resolve('k', produce)));
+    store.release();
+    const got = await all;
+    expect(produce).toHaveBeenCalledTimes(1);
+    expect(new Set(got).size).toBe(1); // the very same entry object for all twenty
+    expect(cache.stats()).toMatchObject({ misses: 1, hits: 0, coalesced: 19, entries: 1 });
+  });
+
+  it('different keys do not coalesce', async () => {
+    const store = new SlowStore();
+    const cache = new CoalescingCache(store);
+    const produce = vi.fn((): CacheEntry => entry('{}'));
+    const all = Promise.all([cache.resolve('a', produce), cache.resolve('b', produce)]);
+    store.release();
+    await all;
+    expect(produce).toHaveBeenCalledTimes(2);
+    expect(cache.stats().coalesced).toBe(0);
+  });
+
+  it('after a lookup completes, the next one is a plain hit', async () => {
+    const cache = new CoalescingCache(new MemoryCache(1 << 20));
+    const produce = vi.fn(() => entry('{"x":2}'));
+    await cache.resolve('k', produce);
+    await cache.resolve('k', produce);
+    expect(produce).toHaveBeenCalledTimes(1);
+    expect(cache.stats()).toMatchObject({ hits: 1, misses: 1, coalesced: 0 });
+  });
+
+  it('an error reaches every joined request, is not stored, and the next request computes again', async () => {
+    const store = new SlowStore();
+    const cache = new CoalescingCache(store);
+    const boom = new Error('unphysical');
+    const failing = vi.fn((): CacheEntry => {
+      throw boom;
+    });
+    const all = Promise.allSettled(Array.from({ length: 5 }, () => cache.resolve('k', failing)));
+    store.release();
+    const results = await all;
+    expect(results.every((r) => r.status === 'rejected' && r.reason === boom)).toBe(true);
+    expect(failing).toHaveBeenCalledTimes(1);
+    expect(cache.stats().entries).toBe(0);
+    const ok = vi.fn(() => entry('{}'));
+    await cache.resolve('k', ok);
+    expect(ok).toHaveBeenCalledTimes(1);
+  });
+
+  it('a store that throws on read and write still answers by computing', async () => {
+    const broken: ResultCache = {
+      get: () => Promise.reject(new Error('store down')),
+      set: () => Promise.reject(new Error('store down')),
+      stats: () => ({ hits: 0, misses: 0, evictions: 0, coalesced: 0, entries: 0, bytes: 0, maxBytes: 0 }),
+    };
+    const cache = new CoalescingCache(broken);
+    await expect(cache.resolve('k', () => entry('{"y":3}'))).resolves.toMatchObject({ body: '{"y":3}' });
+  });
+});
