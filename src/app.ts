@@ -11,6 +11,7 @@ import { registerQuantities } from './api/quantities.js';
 import { COMPUTE_ROUTES } from './api/registry.js';
 import { service } from './api/responses.js';
 import { registerComputeRoute } from './api/route.js';
+import { registerSweepRoute } from './api/sweep.js';
 import { resultCachePlugin } from './cache/plugin.js';
 import { defaultConfig, type Config } from './config.js';
 import { installErrorHandling, problemBody, sendProblem } from './error-handler.js';
@@ -50,6 +51,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
 
   await app.register(resultCachePlugin, { maxBytes: config.CACHE_MAX_BYTES });
   for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route, app.resultCache);
+  registerSweepRoute(app, config.SWEEP_MAX_POINTS, app.resultCache);
   registerQuantities(app);
 
   app.get('/problems/:code', async (request, reply) => {

@@ -26,7 +26,7 @@ describe('configuration', () => {
   it('every variable is documented in README.md and .env.example', () => {
     const readme = readFileSync(new URL('../README.md', import.meta.url), 'utf8');
     const example = readFileSync(new URL('../.env.example', import.meta.url), 'utf8');
-    for (const key of ['PORT', 'HOST', 'LOG_LEVEL', 'BODY_LIMIT_BYTES', 'REQUEST_TIMEOUT_MS', 'SHUTDOWN_GRACE_MS']) {
+    for (const key of ['PORT', 'HOST', 'LOG_LEVEL', 'BODY_LIMIT_BYTES', 'REQUEST_TIMEOUT_MS', 'SHUTDOWN_GRACE_MS', 'SWEEP_MAX_POINTS', 'CACHE_MAX_BYTES']) {
       expect(readme).toContain(`\`${key}\``);
       expect(example).toContain(`${key}=`);
     }

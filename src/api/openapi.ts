@@ -9,6 +9,7 @@ import { LIMITS } from './inputs.js';
 import { quantitiesResponse } from './quantities.js';
 import { COMPUTE_ROUTES } from './registry.js';
 import { CAUTION } from './responses.js';
+import { sweepRequest, sweepResponse } from './sweep.js';
 
 type Json = Record<string, unknown>;
 
@@ -119,6 +120,26 @@ export function buildOpenApiDocument(): Json {
     }
     paths[route.path] = item;
   }
+  paths['/v1/sweep'] = {
+    post: {
+      operationId: 'sweep',
+      summary: 'Sweep quantities over one or two axes',
+      description:
+        'Evaluates sweepable quantities (see /v1/quantities) over a grid of one or two axes — r, altitude, theta, latitude, spin, charge or mass, linear or logarithmic — around one body and a point template. Columnar JSON by default (null where a quantity does not exist, with the reasons counted per column); CSV, streamed, when the Accept header prefers text/csv. Limited to SWEEP_MAX_POINTS grid points (default 1,000,000; larger: 413).',
+      tags: ['sweeps'],
+      requestBody: { required: true, content: { 'application/json': { schema: schemaOf(sweepRequest, 'input', defs) } } },
+      responses: {
+        '200': {
+          description: 'The sweep.',
+          content: {
+            'application/json': { schema: schemaOf(sweepResponse, 'output', defs) },
+            'text/csv': { schema: { type: 'string', description: 'Header row naming each column with its unit, then one row per grid point; empty fields are nulls.' } },
+          },
+        },
+        ...problemResponses([400, 413, 415, 422, 500]),
+      },
+    },
+  };
   paths['/v1/quantities'] = {
     get: {
       operationId: 'quantities',
@@ -168,6 +189,7 @@ export function buildOpenApiDocument(): Json {
       { name: 'clocks', description: 'Clocks and proper time: observers, clock comparisons, intervals.' },
       { name: 'orbits', description: 'Characteristic orbits, circular-orbit frequencies and weak-field precessions.' },
       { name: 'light', description: 'Light bending, signal delay and black-hole shadows.' },
+      { name: 'sweeps', description: 'Grids of quantities for plots and tables.' },
       { name: 'catalogue', description: 'What the service computes and how it reports errors.' },
     ],
     paths,
