@@ -87,6 +87,9 @@ export function computeCircular(input: CircularRequest): CircularResponse {
   }
   const dir = input.direction ?? 'prograde';
   const o = circularOrbit(body.spacetime, point.rGeometric, dir);
+  if (!o.exists && (o.reason === 'insideHorizon' || o.reason === 'onHorizon')) {
+    throw unphysical(input.point.r !== undefined ? '/point/r' : '/point/altitude', o.message);
+  }
   const geo = new Map<OrbitQuantity, number>();
   let reason: string | undefined;
   const notes = bodyNotes(body);

@@ -95,8 +95,9 @@ describe('/v1/orbits/circular', () => {
   it('off the equator or inside the horizon → 422', async () => {
     expect((await get('/v1/orbits/circular?mass=1%20Msun&r=10%20rg&theta=1')).status).toBe(422);
     const inside = await post('/v1/orbits/circular', { body: { mass: '1 Msun' }, point: { r: '1.5 rg' } });
-    expect(inside.status).toBe(200); // the orbit does not exist: reported with its reason
-    expect((inside.json.orbit as { reason: string }).reason).toMatch(/horizon/);
+    expect(inside.status).toBe(422);
+    expect(inside.json.errors).toEqual([expect.objectContaining({ path: '/point/r' })]);
+    expect(String(inside.json.detail)).toMatch(/horizon/);
   });
 });
 
