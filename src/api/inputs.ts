@@ -156,6 +156,7 @@ export function normalizeBody(input: BodyInput, path = '/body'): Body {
   let spinIn: number | string | undefined;
   let chargeIn: number | string | undefined;
   let radius: number | null = null;
+  let radiusGiven: number | null = null;
   let preset: Body['preset'] = null;
   if (typeof input === 'string') {
     const p = PRESETS[input];
@@ -177,7 +178,10 @@ export function normalizeBody(input: BodyInput, path = '/body'): Body {
     spinIn = input.spin;
     chargeIn = input.charge;
     if (input.radius !== undefined) {
-      radius = read(input.radius, 'length', `${path}/radius`, { rg: gm / C2, tg: gm / (C2 * C) });
+      // A radius given in rg keeps its number exactly as the geometric radius (see toLength).
+      const given = at(`${path}/radius`, () => toLength(input.radius!, { rg: gm / C2, tg: gm / (C2 * C) }));
+      radius = given.si;
+      radiusGiven = given.geometric;
       if (!(radius > 0)) throw unphysical(`${path}/radius`, 'radius must be positive');
     }
   }
@@ -214,7 +218,7 @@ export function normalizeBody(input: BodyInput, path = '/body'): Body {
       throw nakedSingularity(path, spin, charge);
     }
   } else {
-    radiusGeometric = radius / rg;
+    radiusGeometric = radiusGiven ?? radius / rg;
     if (radiusGeometric > LIMITS.maxRadiusGeometric) {
       throw unphysical(`${path}/radius`, `radius must not exceed ${LIMITS.maxRadiusGeometric} GM/c² (documented limit)`);
     }
@@ -303,7 +307,8 @@ export function normalizePoint(input: PointInput, body: Body, path = '/point'): 
   if (!(rGeometric <= LIMITS.maxRadiusGeometric)) {
     throw unphysical(where, `r must not exceed ${LIMITS.maxRadiusGeometric} GM/c² (documented limit)`);
   }
-  if (body.radius !== null && r < body.radius) {
+  // Compared in units of GM/c², exactly as the physics layer classifies the point.
+  if (body.radiusGeometric !== null && rGeometric < body.radiusGeometric) {
     throw unphysical(
       where,
       `the point (r = ${r} m) lies below the body's surface (radius ${body.radius} m): the vacuum exterior does not apply inside a body`,

@@ -20,7 +20,7 @@ import { LOCAL_QUANTITIES, type LocalQuantity } from '../physics/local.js';
 import { ReasonTable, sweepDomain, sweepLocal, type SweepGrid, type SweepParam } from '../physics/sweep.js';
 import { BODY_QUANTITIES, sweepBody, type BodyQuantity } from '../physics/sweep-body.js';
 import { C, C2, CHARGE_TO_LENGTH, G } from '../units/constants.js';
-import { isPlainNumber, MAX_QUANTITY_LENGTH, needsBodyScale } from '../units/quantity.js';
+import { isPlainNumber, MAX_QUANTITY_LENGTH, needsBodyScale, toLength } from '../units/quantity.js';
 import {
   bodyInput,
   LIMITS,
@@ -37,7 +37,7 @@ import { bodyEcho, bodyEchoSchema, bodyNotes, service, serviceStamp } from './re
 import { parseOr400 } from './route.js';
 import type { CoalescingCache } from '../cache/coalesce.js';
 import { etagFor, ifNoneMatchMatches, JSON_CONTENT_TYPE, POST_CACHE_CONTROL } from '../cache/http.js';
-import { cacheKey } from '../cache/key.js';
+import { cacheKey, canonicalBody } from '../cache/key.js';
 import type { CacheEntry } from '../cache/types.js';
 import { VERSION } from '../version.js';
 
@@ -141,6 +141,8 @@ export interface PreparedSweep {
   scales: Scales;
   /** The body parameters over the axes that change the body (length nBody; see bodyExpand). */
   bodies: { n: number; a: SweepParam; q: SweepParam; surface: SweepParam; scales: Scales; axis: number | 'all' | 'none' };
+  /** Domain codes of every point (sweepDomain with the point checks), or null when no quantity needs the point. */
+  domain: Uint8Array | null;
   notes: string[];
 }
 
@@ -325,19 +327,17 @@ export function prepareSweep(input: unknown, maxPoints: number = SWEEP_DEFAULT_M
     surfaceBase = base.presetBody.radiusGeometric ?? Number.NaN;
   } else if (base.radiusIn !== undefined) {
     const radiusIn = base.radiusIn;
+    // As normalizeBody reads it: a radius given in rg keeps its number as the geometric radius.
     const radiusAt = (rg: number, tg: number) => {
-      const R = readQuantity(radiusIn, 'length', '/body/radius', { rg, tg });
-      if (!(R > 0)) throw unphysical('/body/radius', 'radius must be positive');
-      if (R / rg > LIMITS.maxRadiusGeometric) {
-        throw unphysical('/body/radius', `radius must not exceed ${LIMITS.maxRadiusGeometric} GM/c² (documented limit)`);
-      }
+      const R = readLength(radiusIn, '/body/radius', { rg, tg });
       return R;
     };
-    radiusSI = radiusAt(first.rg, first.tg);
-    surfaceBase = radiusSI / first.rg;
+    const R0 = radiusAt(first.rg, first.tg);
+    radiusSI = R0.si;
+    surfaceBase = R0.geometric;
     if (scaleAxis) {
       surfaceAxis = new Float64Array(scaleAxis.rg.length);
-      for (let j = 0; j < surfaceAxis.length; j++) surfaceAxis[j] = radiusAt(scaleAxis.rg[j]!, scaleAxis.tg[j]!) / scaleAxis.rg[j]!;
+      for (let j = 0; j < surfaceAxis.length; j++) surfaceAxis[j] = radiusAt(scaleAxis.rg[j]!, scaleAxis.tg[j]!).geometric;
     }
   }
   const hasSurface = radiusSI !== null;
@@ -462,7 +462,103 @@ export function prepareSweep(input: unknown, maxPoints: number = SWEEP_DEFAULT_M
   if (needsPoint && radialAxis !== undefined && !hasSurface) {
     notes.push('Points at or inside the outer horizon are kept: quantities that do not exist there are null with the reason (the horizon depends on spin and charge).');
   }
-  return { body: echo, quantities, axes, shape, n, grid, scales, bodies, notes };
+  return { body: echo, quantities, axes, shape, n, grid, scales, bodies, domain: needsPoint ? domain : null, notes };
+}
+
+// ---------------------------------------------------------------------------------------------------
+// Cache key
+
+/** One end of an r axis or the point's r: geometric (given in rg) or metres, as prepareSweep reads it. */
+type CanonicalLength = { rg: number } | { m: number };
+
+/**
+ * The canonical input of a sweep's cache key: what prepareSweep reads from the request, as exact
+ * doubles, without allocating the grid. Requests with equal canonical inputs give byte-identical
+ * responses, so key order, equivalent unit spellings ("35786 km" and 35786000, "10 Msun" and
+ * "1e1 Msun") and omitted defaults (spacing linear, θ = π/2) share one cache entry:
+ *
+ * - body: canonicalBody(normalizeBody(body)), without the spin or charge an axis replaces; with a mass
+ *   axis (which replaces the mass and reads the radius per mass) the validated body as given;
+ * - point: r (in rg, or in m with a mass axis when not given in rg) or altitude (m), and θ (rad) —
+ *   each only when no axis replaces it, as prepareSweep uses it;
+ * - axes: variable, from and to in SI (mass kg, altitude m, angles rad, r in m) or geometric units
+ *   (r given in rg, spin, charge), count, spacing; quantities in order.
+ *
+ * Anything it cannot read (the request will be refused, or an edge normalizeBody rejects while a sweep
+ * accepts it, such as a template spin that an axis replaces) falls back to the validated request
+ * itself, under another tag so that the two forms never share a key; errors then come from
+ * prepareSweep as before.
+ */
+export function sweepCacheInput(req: SweepRequest, maxPoints: number): unknown {
+  try {
+    return { maxPoints, canonical: canonicalSweep(req) };
+  } catch {
+    return { maxPoints, request: req };
+  }
+}
+
+function canonicalSweep(req: SweepRequest): unknown {
+  const variables = req.axes.map((a) => a.variable);
+  const has = (v: AxisVariable) => variables.includes(v);
+  const massAxis = has('mass');
+  let body: unknown;
+  let scale = { rg: Number.NaN, tg: Number.NaN };
+  if (massAxis) body = { asGiven: req.body };
+  else {
+    const b = normalizeBody(req.body);
+    // An axis over spin or charge replaces the template's (which is only checked).
+    body = { ...canonicalBody(b), spin: has('spin') ? null : b.spin, charge: has('charge') ? null : b.charge };
+    scale = { rg: b.rg, tg: b.tg };
+  }
+  const length = (x: number | string, path: string): CanonicalLength => {
+    if (massAxis && !needsBodyScale(x)) return { m: readQuantity(x, 'length', path) };
+    return { rg: massAxis ? toLength(x, { rg: 1, tg: 1 }).geometric : readLength(x, path, scale).geometric };
+  };
+  const axes = req.axes.map((ax, k) => {
+    const path = `/axes/${k}`;
+    let ends: [unknown, unknown];
+    switch (ax.variable) {
+      case 'mass':
+        ends = [readMass(ax.from, `${path}/from`), readMass(ax.to, `${path}/to`)];
+        break;
+      case 'spin':
+      case 'charge':
+        ends = [readSpinChargePlain(ax.variable, ax.from, `${path}/from`), readSpinChargePlain(ax.variable, ax.to, `${path}/to`)];
+        break;
+      case 'theta':
+      case 'latitude':
+        ends = [readQuantity(ax.from, 'angle', `${path}/from`), readQuantity(ax.to, 'angle', `${path}/to`)];
+        break;
+      case 'altitude':
+        if (massAxis) throw new Error('not canonical');
+        ends = [readQuantity(ax.from, 'length', `${path}/from`, scale), readQuantity(ax.to, 'length', `${path}/to`, scale)];
+        break;
+      default: {
+        // r: both ends in rg (geometric) when either is, else both in metres, as prepareSweep reads them.
+        const inRg = needsBodyScale(ax.from) || needsBodyScale(ax.to);
+        if (massAxis) ends = [length(ax.from, `${path}/from`), length(ax.to, `${path}/to`)];
+        else {
+          const read = (x: number | string, p: string) => readLength(x, p, scale);
+          ends = inRg ? [read(ax.from, `${path}/from`).geometric, read(ax.to, `${path}/to`).geometric] : [{ m: read(ax.from, `${path}/from`).si }, { m: read(ax.to, `${path}/to`).si }];
+        }
+      }
+    }
+    return { variable: ax.variable, from: ends[0], to: ends[1], count: ax.count, spacing: ax.spacing };
+  });
+  const point = req.point ?? {};
+  const canonicalPointOut: { r?: CanonicalLength; altitude?: number; theta?: number } = {};
+  if (!has('r') && !has('altitude')) {
+    if (point.r !== undefined && point.altitude !== undefined) throw new Error('not canonical');
+    if (point.r !== undefined) canonicalPointOut.r = massAxis ? length(point.r, '/point/r') : { rg: readLength(point.r, '/point/r', scale).geometric };
+    else if (point.altitude !== undefined) canonicalPointOut.altitude = readQuantity(point.altitude, 'length', '/point/altitude', scale);
+  }
+  if (!has('theta') && !has('latitude')) {
+    if (point.theta !== undefined && point.latitude !== undefined) throw new Error('not canonical');
+    if (point.theta !== undefined) canonicalPointOut.theta = readQuantity(point.theta, 'angle', '/point/theta');
+    else if (point.latitude !== undefined) canonicalPointOut.theta = Math.PI / 2 - readQuantity(point.latitude, 'angle', '/point/latitude');
+    else canonicalPointOut.theta = Math.PI / 2;
+  }
+  return { body, point: canonicalPointOut, axes, quantities: req.quantities };
 }
 
 /** Reads an axis's two ends with `read` (which validates each) and spaces the values. */
@@ -546,8 +642,12 @@ function factorOf(info: QuantityInfo, s: Scales, n: number): SweepParam {
 export function computeSweepColumns(prepared: PreparedSweep): SweepColumns {
   const { grid, n, bodies } = prepared;
   const table = new ReasonTable();
-  const domain = new Uint8Array(n);
-  sweepDomain(grid, domain, true);
+  // The domain pass of prepareSweep, reused (a second pass over 1e6 points costs as much as a quantity).
+  let domain = prepared.domain;
+  if (domain === null) {
+    domain = new Uint8Array(n);
+    sweepDomain(grid, domain, true);
+  }
   const columns: SweepColumns['columns'] = [];
   for (const info of prepared.quantities) {
     const values = new Float64Array(n);
@@ -623,28 +723,39 @@ function nullReasons(codes: Uint8Array, texts: readonly string[]): { reason: str
 }
 
 /**
+ * JSON.stringify with every character outside ASCII written as a \uXXXX escape (the same JSON value).
+ * The sweep document is then pure ASCII, so V8 holds its one large string in one byte per character
+ * (a single π in a reason or note would otherwise make the whole document two bytes per character),
+ * and the route can send it as a Buffer copied byte for byte (latin1) instead of encoding it to UTF-8
+ * on every response.
+ */
+function asciiJson(value: unknown): string {
+  return JSON.stringify(value).replace(/[\u007f-\uffff]/g, (ch) => `\\u${ch.charCodeAt(0).toString(16).padStart(4, '0')}`);
+}
+
+/**
  * The columnar JSON document (sweepResponse) as text pieces, written directly from the typed arrays
- * (blocks of BLOCK numbers): stream them, or join them (sweepJson).
+ * (blocks of BLOCK numbers), pure ASCII (asciiJson): stream them, or join them (sweepJson).
  */
 export function* sweepJsonChunks(prepared: PreparedSweep, columns: SweepColumns): Generator<string> {
   let parts: string[] = [];
-  parts.push(`{"service":${JSON.stringify(service)},"body":${JSON.stringify(bodyEcho(prepared.body))},"axes":[`);
+  parts.push(`{"service":${asciiJson(service)},"body":${asciiJson(bodyEcho(prepared.body))},"axes":[`);
   for (const [k, ax] of prepared.axes.entries()) {
-    parts.push(`${k ? ',' : ''}{"variable":${JSON.stringify(ax.variable)},"unit":${JSON.stringify(ax.unit)},"values":`);
+    parts.push(`${k ? ',' : ''}{"variable":${asciiJson(ax.variable)},"unit":${asciiJson(ax.unit)},"values":`);
     pushArray(parts, ax.values);
     parts.push('}');
     yield* parts;
     parts = [];
   }
-  parts.push(`],"shape":${JSON.stringify(prepared.shape)},"columns":{`);
+  parts.push(`],"shape":${asciiJson(prepared.shape)},"columns":{`);
   for (const [k, col] of columns.columns.entries()) {
-    parts.push(`${k ? ',' : ''}${JSON.stringify(col.info.name)}:{"unit":${JSON.stringify(col.info.unit)},"values":`);
+    parts.push(`${k ? ',' : ''}${asciiJson(col.info.name)}:{"unit":${asciiJson(col.info.unit)},"values":`);
     pushArray(parts, col.values);
-    parts.push(`,"nullReasons":${JSON.stringify(nullReasons(col.codes, columns.reasons))}}`);
+    parts.push(`,"nullReasons":${asciiJson(nullReasons(col.codes, columns.reasons))}}`);
     yield* parts;
     parts = [];
   }
-  yield `},"notes":${JSON.stringify(prepared.notes)}}`;
+  yield `},"notes":${asciiJson(prepared.notes)}}`;
 }
 
 /** The columnar JSON document (sweepResponse) as one string. */
@@ -732,12 +843,33 @@ export function prefersCsv(accept: string | undefined): boolean {
 }
 
 /**
+ * The bytes of the last cached document this route sent, kept with its entry: an identical repeat
+ * (the common case: a client asking the same sweep again) is sent without copying 1e6 numbers again.
+ * One slot, so it holds at most one extra copy of one document. The document is ASCII
+ * (sweepJsonChunks), so latin1 copies it byte for byte: a few ms for 1e6 points, where writing the
+ * string makes Node encode it to UTF-8 at a fraction of the speed.
+ */
+class LastSent {
+  private entry: CacheEntry | null = null;
+  private bytes: Buffer | null = null;
+
+  bytesOf(entry: CacheEntry): Buffer {
+    if (this.entry !== entry || this.bytes === null) {
+      this.bytes = Buffer.from(entry.body, 'latin1');
+      this.entry = entry;
+    }
+    return this.bytes;
+  }
+}
+
+/**
  * Registers POST /v1/sweep: JSON by default, streamed CSV when Accept prefers text/csv. JSON results
  * go through the result cache (with coalescing, a strong ETag and 304 on If-None-Match), keyed by the
- * validated request stably serialised (key order does not matter; unit spellings still do); CSV is
- * streamed as it is computed and not cached.
+ * canonical input (sweepCacheInput: key order, unit spellings and omitted defaults do not matter); CSV
+ * is streamed as it is computed and not cached.
  */
 export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWEEP_DEFAULT_MAX_POINTS, cache?: CoalescingCache): void {
+  const lastSent = new LastSent();
   app.post('/v1/sweep', async (request: FastifyRequest, reply: FastifyReply) => {
     if (prefersCsv(request.headers.accept)) {
       const prepared = prepareSweep(request.body, maxPoints);
@@ -746,7 +878,7 @@ export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWE
       return reply.send(Readable.from(sweepCsvChunks(prepared, columns)));
     }
     const validated = parseOr400(sweepRequest, request.body);
-    const key = cacheKey(VERSION, '/v1/sweep', { maxPoints, request: validated });
+    const key = cacheKey(VERSION, '/v1/sweep', sweepCacheInput(validated, maxPoints));
     const etag = etagFor(key);
     if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) {
       return reply.code(304).header('etag', etag).header('cache-control', POST_CACHE_CONTROL).send();
@@ -756,6 +888,10 @@ export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWE
       return { body: sweepJson(prepared, computeSweepColumns(prepared)), contentType: JSON_CONTENT_TYPE, etag };
     };
     const entry = cache ? await cache.resolve(key, produce) : produce();
-    return reply.header('etag', entry.etag).header('cache-control', POST_CACHE_CONTROL).header('content-type', entry.contentType).send(entry.body);
+    return reply
+      .header('etag', entry.etag)
+      .header('cache-control', POST_CACHE_CONTROL)
+      .header('content-type', entry.contentType)
+      .send(lastSent.bytesOf(entry));
   });
 }

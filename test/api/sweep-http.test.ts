@@ -35,6 +35,56 @@ describe('POST /v1/sweep in the service', () => {
     expect(notModified.body).toBe('');
   });
 
+  it('keys the cache by the normalised request: equivalent spellings and defaults hit, other values miss', async () => {
+    const post = (payload: unknown) => app().inject({ method: 'POST', url: '/v1/sweep', payload: payload as object });
+    const hits = () => app().resultCache.stats().hits;
+    const first = {
+      body: { mass: '10 Msun' },
+      point: { r: '35786 km' },
+      quantities: ['staticClockRate', 'flowSpeed'],
+      axes: [
+        { variable: 'theta', from: '10 deg', to: '170 deg', count: 7 },
+        { variable: 'spin', from: 0, to: 0.9, count: 4 },
+      ],
+    };
+    const cold = await post(first);
+    expect(cold.statusCode, cold.body.slice(0, 300)).toBe(200);
+    const same = [
+      // Other spellings of the same numbers, defaults written out, keys in another order.
+      {
+        quantities: ['staticClockRate', 'flowSpeed'],
+        axes: [
+          { count: 7, spacing: 'linear', to: '170 deg', from: '10 deg', variable: 'theta' },
+          { variable: 'spin', from: '0', to: 0.9, count: 4, spacing: 'linear' },
+        ],
+        point: { theta: '90 deg', r: 35786000 },
+        body: { spin: 0, mass: '1e1 Msun', charge: 0 },
+      },
+      { ...first, body: { mass: '10 Msun', spin: 0.5 }, point: { r: '35786000 m', latitude: 0 } },
+    ];
+    for (const payload of same) {
+      const before = hits();
+      const res = await post(payload);
+      expect(res.body).toBe(cold.body);
+      expect(res.headers.etag).toBe(cold.headers.etag);
+      expect(hits()).toBe(before + 1);
+    }
+    const other = [
+      { ...first, point: { r: '35787 km' } },
+      { ...first, quantities: ['flowSpeed', 'staticClockRate'] },
+      { ...first, body: { mass: '11 Msun' } },
+      { ...first, axes: [first.axes[0]!, { ...first.axes[1]!, count: 5 }] },
+      { ...first, axes: [first.axes[0]!, { ...first.axes[1]!, spacing: 'log', from: 0.1 }] },
+    ];
+    for (const payload of other) {
+      const before = hits();
+      const res = await post(payload);
+      expect(res.statusCode).toBe(200);
+      expect(res.headers.etag).not.toBe(cold.headers.etag);
+      expect(hits()).toBe(before);
+    }
+  });
+
   it('streams CSV when asked, with units in the header', async () => {
     const res = await app().inject({ method: 'POST', url: '/v1/sweep', payload: request, headers: { accept: 'text/csv' } });
     expect(res.statusCode).toBe(200);

@@ -194,6 +194,20 @@ describe('POST /v1/sweep', () => {
     }
   });
 
+  it('writes the JSON document in ASCII (\\u escapes), the same strings once parsed', async () => {
+    const payload = { body: { mass: '10 Msun' }, point: { r: '10 rg' }, quantities: ['flowSpeed', 'staticClockRate'], axes: [{ variable: 'r', from: '1 rg', to: '5 rg', count: 9 }] };
+    const p = prepareSweep(payload);
+    const text = sweepJson(p, computeSweepColumns(p));
+    expect(/^[\x20-\x7e]*$/.test(text)).toBe(true);
+    const doc = JSON.parse(text) as SweepResponse;
+    expect(doc.notes).toEqual(p.notes);
+    expect(doc.notes.join(' ')).toMatch(/[²₁]/);
+    expect(doc.columns.staticClockRate!.nullReasons[0]!.reason).toMatch(/inside the outer horizon/);
+    const res = await post(payload);
+    expect(res.body).toBe(text);
+    expect(Number(res.headers['content-length'])).toBe(text.length);
+  });
+
   it('prefers CSV only when the Accept header does', () => {
     expect(prefersCsv(undefined)).toBe(false);
     expect(prefersCsv('*/*')).toBe(false);
