@@ -50,6 +50,8 @@ export interface Measurement {
 export interface Server {
   name: string;
   url: string;
+  /** Process id of the child (for /proc reads such as peak RSS); undefined if it failed to spawn. */
+  pid: number | undefined;
   stop: () => Promise<void>;
 }
 
@@ -200,7 +202,7 @@ export async function startServer(
     clearTimeout(timer);
   };
 
-  const server: Server = { name, url, stop };
+  const server: Server = { name, url, pid: p.child.pid, stop };
   running.add(server);
   void p.exit.then(() => running.delete(server));
   for (let attempt = 0; attempt < READY_ATTEMPTS && !p.exited(); attempt++) {

@@ -8,6 +8,8 @@
  *    /v1/orbits/circular: "within the same ratio as /v1/local") are held to that instead.
  * 2. In-process: free fall by quadrature against scipy (./fall.ts).
  * 3. In-process: the Kerr shadow against numpy and the deflection of light against scipy (./light.ts).
+ * 4. Sweeps (./sweep.ts): a 1e6-point compute rate against numpy, and the same sweep as columnar JSON
+ *    over HTTP from a fresh service (cold, cached repeat, peak RSS).
  *
  * BENCH_SECONDS sets the measured seconds per HTTP case (default 10). Benchmarks report; they do not
  * fail: a missed target still exits 0. A server that cannot start exits 1.
@@ -31,6 +33,7 @@ import localGet from './cases/local-get.js';
 import localPost from './cases/local-post.js';
 import orbitsCircular from './cases/orbits-circular.js';
 import shadowKerr17deg from './cases/shadow-kerr-17deg.js';
+import sweepFlow1e6 from './cases/sweep-flow-1e6.js';
 import { fallTable, measureFalls, type FallCase } from './fall.js';
 import { lightTable, measureLight, type LightCase } from './light.js';
 import {
@@ -45,11 +48,13 @@ import {
   type Server,
   type Target,
 } from './processes.js';
+import { measureSweeps, sweepTable, type SweepCase } from './sweep.js';
 import { formatTable, machineLine } from './timing.js';
 
 const CASES: readonly BenchCase[] = [bareTiny, barePayload, barePayloadPost, localGet, localPost, localEarth, clocksGps, orbitsCircular];
 const FALL_CASES: readonly FallCase[] = [fallKerrEquator, fallRnInfinity, fallSchwarzschildRest];
 const LIGHT_CASES: readonly LightCase[] = [shadowKerr17deg, deflectionSchwarzschildR4, deflectionKerrNewmanRetrograde];
+const SWEEP_CASES: readonly SweepCase[] = [sweepFlow1e6];
 const TARGET_RATIO = 0.6;
 const TARGET_P99_MS = 5;
 /** The row the "vs GET /v1/local" column divides by. */
@@ -162,6 +167,8 @@ async function main(): Promise<void> {
   const falls = await measureFalls(ROOT, FALL_CASES);
   const lightLoad = loadavg()[0] ?? Number.NaN;
   const light = await measureLight(ROOT, LIGHT_CASES);
+  const sweepLoad = loadavg()[0] ?? Number.NaN;
+  const sweeps = await measureSweeps(ROOT, SWEEP_CASES);
 
   const httpLoad = loadavg()[0] ?? Number.NaN;
   const payloadDir = mkdtempSync(join(tmpdir(), 'spacetide-bench-'));
@@ -184,7 +191,9 @@ async function main(): Promise<void> {
     ...goalLines(),
     `"vs GET /v1/local" divides by ${LOCAL_REFERENCE.name}`,
   ];
-  process.stdout.write(`${httpTable(rows, header)}\n\n${fallTable(falls, fallLoad)}\n\n${lightTable(light, lightLoad)}\n`);
+  process.stdout.write(
+    `${httpTable(rows, header)}\n\n${fallTable(falls, fallLoad)}\n\n${lightTable(light, lightLoad)}\n\n${sweepTable(sweeps, sweepLoad)}\n`,
+  );
 }
 
 main().catch((err: unknown) => {
