@@ -14,7 +14,7 @@ export const HOST = '127.0.0.1';
 export const CONNECTIONS = 50;
 
 /** Which server a case runs against. */
-export type Target = 'bareTiny' | 'barePayload' | 'barePayloadPost' | 'service';
+export type Target = 'bareTiny' | 'barePayload' | 'barePayloadPost' | 'service' | 'serviceCached';
 
 /** One benchmark case: a request repeated by every connection. */
 export interface BenchCase {
