@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { canonicalBody } from '../cache/key.js';
 import { horizonProperties } from '../physics/horizon.js';
 import { characteristicOrbits } from '../physics/orbits.js';
+import { BLACK_HOLE_ONLY, BODY_QUANTITIES, NAKED, SURFACE_ONLY, type BodyQuantity } from '../physics/sweep-body.js';
 import { evaluateLocal } from '../physics/local.js';
 import { ergosurfaceRadius } from '../physics/spacetime.js';
 import { toQuantity, type QuantityValue } from '../units/convert.js';
@@ -13,35 +14,9 @@ import { bodyInput, bodyPointFromQuery, bodyPointQuery, normalizeBody, queryPath
 import { bodyEcho, bodyEchoSchema, bodyNotes, quantityValue, service, serviceStamp } from './responses.js';
 import type { ComputeRoute } from './route.js';
 
-export const SPACETIME_QUANTITIES = [
-  'schwarzschildRadius',
-  'outerHorizon',
-  'innerHorizon',
-  'ergosurfaceEquator',
-  'ergosurfacePole',
-  'surfaceGravity',
-  'hawkingTemperature',
-  'horizonArea',
-  'horizonAngularVelocity',
-  'horizonElectricPotential',
-  'irreducibleMass',
-  'compactness',
-  'surfaceEscapeSpeed',
-  'surfaceClockOffset',
-  'surfaceHoverAcceleration',
-  ...(['Prograde', 'Retrograde'] as const).flatMap(
-    (d) =>
-      [
-        `photonOrbit${d}`,
-        `marginallyBoundOrbit${d}`,
-        `isco${d}`,
-        `iscoEnergy${d}`,
-        `iscoAngularMomentum${d}`,
-        `iscoEfficiency${d}`,
-      ] as const,
-  ),
-] as const;
-type SpacetimeQuantity = (typeof SPACETIME_QUANTITIES)[number];
+/** The body-only quantities, one list for this endpoint and the sweeps (physics/sweep-body.ts). */
+export const SPACETIME_QUANTITIES = BODY_QUANTITIES;
+type SpacetimeQuantity = BodyQuantity;
 
 /** The properties of a black hole's outer horizon (from physics/horizon.ts). */
 const HORIZON_QUANTITIES = [
@@ -69,9 +44,6 @@ export const spacetimeResponse = z
   .meta({ id: 'SpacetimeResponse' });
 export type SpacetimeResponse = z.infer<typeof spacetimeResponse>;
 
-const BLACK_HOLE_ONLY = 'a property of a black hole\'s horizon; this body has a surface and no horizon';
-const SURFACE_ONLY = 'a black hole has no surface';
-const NAKED = 'spin² + charge² > 1: the vacuum exterior has no horizon';
 
 export function computeSpacetime(input: SpacetimeRequest): SpacetimeResponse {
   const body = normalizeBody(input.body);

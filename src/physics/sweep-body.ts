@@ -44,10 +44,10 @@ export const BODY_QUANTITIES = [
 ] as const;
 export type BodyQuantity = (typeof BODY_QUANTITIES)[number];
 
-// The reason texts of /v1/spacetime (api/spacetime.ts); a test holds them equal.
-const BLACK_HOLE_ONLY = 'a property of a black hole\'s horizon; this body has a surface and no horizon';
-const SURFACE_ONLY = 'a black hole has no surface';
-const NAKED = 'spin² + charge² > 1: the vacuum exterior has no horizon';
+// The reason texts of the body quantities, shared with /v1/spacetime (api/spacetime.ts).
+export const BLACK_HOLE_ONLY = 'a property of a black hole\'s horizon; this body has a surface and no horizon';
+export const SURFACE_ONLY = 'a black hole has no surface';
+export const NAKED = 'spin² + charge² > 1: the vacuum exterior has no horizon';
 const NO_ERGOSURFACE = 'g_tt has no root here: there is no ergosurface';
 const NO_ISCO_EL = 'in the extremal limit the ISCO meets the horizon in Boyer–Lindquist r and E, L are not defined there';
 /** Fallbacks (without the body-specific length) when a sweep's reason table is full. */
