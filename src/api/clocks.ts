@@ -5,7 +5,8 @@ import { z } from 'zod';
 import { compareClocks, signalFrequencyRatio, type RateSplit } from '../physics/observers.js';
 import { JULIAN_YEAR } from '../units/constants.js';
 import { bodyInput, normalizeBody } from './inputs.js';
-import { normalizeObserver, observerEcho, observerEchoSchema, observerInput, type NormalizedObserver } from './observer.js';
+import { canonicalBody } from '../cache/key.js';
+import { canonicalObserver, normalizeObserver, observerEcho, observerEchoSchema, observerInput, type NormalizedObserver } from './observer.js';
 import { bodyEcho, bodyEchoSchema, bodyNotes, CAUTION, service, serviceStamp } from './responses.js';
 import type { ComputeRoute } from './route.js';
 
@@ -120,4 +121,10 @@ export const clocksRoute: ComputeRoute<ClocksRequest> = {
   body: clocksRequest,
   response: clocksResponse,
   compute: computeClocks,
+  canonical: (input) => {
+    const body = normalizeBody(input.body);
+    const a = normalizeObserver(input.a, body, '/a');
+    const b = normalizeObserver(input.b, body, '/b');
+    return { body: canonicalBody(body), a: canonicalObserver(a), b: canonicalObserver(b), dr: radialSeparation(a, b, body.rg) ?? null };
+  },
 };

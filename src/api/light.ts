@@ -10,6 +10,7 @@ import { distantAngularSize, shadow, staticObserverShadowRadius } from '../physi
 import { bodyInput, normalizeBody, quantityInput, readAngle, readLength, type Body } from './inputs.js';
 import { bodyEcho, bodyEchoSchema, bodyNotes, service, serviceStamp } from './responses.js';
 import type { ComputeRoute } from './route.js';
+import { canonicalBody } from '../cache/key.js';
 
 const ARCSEC = Math.PI / (180 * 3600);
 const MICROARCSEC = ARCSEC * 1e-6;
@@ -134,6 +135,10 @@ export const deflectionRoute: ComputeRoute<DeflectionRequest> = {
   body: deflectionRequest,
   response: deflectionResponse,
   compute: computeDeflection,
+  canonical: (input) => {
+    const body = normalizeBody(input.body);
+    return { body: canonicalBody(body), ray: ray(body, input.ray, '/ray'), direction: input.direction ?? 'prograde', tolerance: input.tolerance ?? null };
+  },
 };
 
 // ---- Shapiro delay -------------------------------------------------------------------------------
@@ -208,6 +213,10 @@ export const delayRoute: ComputeRoute<DelayRequest> = {
   body: delayRequest,
   response: delayResponse,
   compute: computeDelay,
+  canonical: (input) => {
+    const body = normalizeBody(input.body);
+    return { body: canonicalBody(body), from: length(body, input.from, '/from'), to: length(body, input.to, '/to'), ray: ray(body, input.ray, '/ray') };
+  },
 };
 
 // ---- shadow --------------------------------------------------------------------------------------
@@ -301,4 +310,13 @@ export const shadowRoute: ComputeRoute<ShadowRequest> = {
   body: shadowRequest,
   response: shadowResponse,
   compute: computeShadow,
+  canonical: (input) => {
+    const body = normalizeBody(input.body);
+    return {
+      body: canonicalBody(body),
+      inclination: readAngle(input.inclination, '/inclination', 0, Math.PI, '[0°, 180°]'),
+      distance: input.distance === undefined ? null : length(body, input.distance, '/distance'),
+      points: input.points ?? 256,
+    };
+  },
 };

@@ -10,6 +10,7 @@ import { C } from '../units/constants.js';
 import { normalizePoint, pointInput, quantityInput, readQuantity, type Body, type Point } from './inputs.js';
 import { pointEcho, pointEchoSchema } from './responses.js';
 import { region } from '../physics/spacetime.js';
+import { canonicalPoint } from '../cache/key.js';
 
 export const observerInput = z
   .strictObject({
@@ -79,6 +80,16 @@ export function normalizeObserver(input: ObserverInput, body: Body, path: string
   const result = stationaryObserver(body.spacetime, spec);
   if (!result.exists) throw unphysical(`${path}/kind`, `no ${input.kind} observer here: ${result.message}`);
   return { observer: result, point, input };
+}
+
+/** The canonical form of a normalised observer for cache keys: what its part of a response depends on. */
+export function canonicalObserver(n: NormalizedObserver): unknown {
+  return {
+    kind: n.observer.kind,
+    point: n.point ? canonicalPoint(n.point) : null,
+    direction: n.observer.kind === 'circular' ? (n.input.direction ?? 'prograde') : null,
+    angularVelocity: n.observer.angularVelocity,
+  };
 }
 
 const value = z.object({

@@ -277,4 +277,15 @@ export const precessionRoute: ComputeRoute<PrecessionRequest> = {
   body: precessionRequest,
   response: precessionResponse,
   compute: computePrecession,
+  canonical: (input) => {
+    const body = normalizeBody(input.body);
+    const o = input.orbit;
+    return {
+      body: canonicalBody(body),
+      semiMajorAxis: readLength(o.semiMajorAxis, '/orbit/semiMajorAxis', body),
+      eccentricity: o.eccentricity ?? 0,
+      inclination: o.inclination === undefined ? 0 : readAngle(o.inclination, '/orbit/inclination', 0, Math.PI, '[0°, 180°]'),
+      period: o.period === undefined ? null : readQuantity(o.period, 'time', '/orbit/period', body),
+    };
+  },
 };

@@ -9,7 +9,8 @@ import { FALL_REASONS, freeFall, type FallStart, type FreeFall, type FreeFallRef
 import { circularOrbitRevolutions, stationaryFarAwayTime, stationaryProperTime } from '../physics/proper-time.js';
 import { region } from '../physics/spacetime.js';
 import { bodyInput, normalizeBody, normalizePoint, pointInput, quantityInput, readAngle, readLength, readQuantity, type Body } from './inputs.js';
-import { normalizeObserver, observerEcho, observerEchoSchema, observerInput } from './observer.js';
+import { canonicalBody, canonicalPoint } from '../cache/key.js';
+import { canonicalObserver, normalizeObserver, observerEcho, observerEchoSchema, observerInput } from './observer.js';
 import { bodyEcho, bodyEchoSchema, bodyNotes, CAUTION, pointEchoSchema, pointEcho, service, serviceStamp } from './responses.js';
 import type { ComputeRoute } from './route.js';
 
@@ -234,4 +235,37 @@ export const properTimeRoute: ComputeRoute<ProperTimeRequest> = {
   body: properTimeRequest,
   response: properTimeResponse,
   compute: computeProperTime,
+  canonical: (input) => {
+    const body = normalizeBody(input.body);
+    const iv = input.interval;
+    const time = (v: number | string | undefined, path: string) => (v === undefined ? null : readQuantity(v, 'time', path, body));
+    let interval: unknown;
+    if (iv.kind === 'stationary') {
+      interval = {
+        kind: iv.kind,
+        observer: canonicalObserver(normalizeObserver(iv.observer, body, '/interval/observer')),
+        farAwayTime: time(iv.farAwayTime, '/interval/farAwayTime'),
+        properTime: time(iv.properTime, '/interval/properTime'),
+      };
+    } else if (iv.kind === 'freeFall') {
+      interval = {
+        kind: iv.kind,
+        from: readLength(iv.from, '/interval/from', body, true),
+        to: readLength(iv.to, '/interval/to', body, true),
+        start: iv.start,
+        speed: iv.speed === undefined ? null : readQuantity(iv.speed, 'speed', '/interval/speed'),
+        direction: iv.start === 'launch' ? (iv.direction ?? 'inward') : (iv.direction ?? null),
+        theta: iv.theta === undefined ? Math.PI / 2 : readQuantity(iv.theta, 'angle', '/interval/theta'),
+        tolerance: iv.tolerance ?? null,
+      };
+    } else {
+      interval = {
+        kind: iv.kind,
+        point: canonicalPoint(normalizePoint(iv.point, body, '/interval/point')),
+        direction: iv.direction ?? 'prograde',
+        revolutions: iv.revolutions,
+      };
+    }
+    return { body: canonicalBody(body), interval };
+  },
 };

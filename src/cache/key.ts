@@ -77,8 +77,17 @@ export function canonicalBody(body: {
   spin: number;
   charge: number;
   radius: number | null;
-}): { preset: string | null; gm: number; spin: number; charge: number; radius: number | null } {
-  return { preset: body.preset, gm: body.gm, spin: body.spin, charge: body.charge, radius: body.radius };
+  radiusGeometric: number | null;
+}): { preset: string | null; gm: number; spin: number; charge: number; radius: number | null; radiusGeometric: number | null } {
+  // radiusGeometric is kept as read ("3 rg" is exactly 3; 3·rg in metres divided back may not be).
+  return {
+    preset: body.preset,
+    gm: body.gm,
+    spin: body.spin,
+    charge: body.charge,
+    radius: body.radius,
+    radiusGeometric: body.radiusGeometric,
+  };
 }
 
 /** The canonical form of a normalised point: r in m and in GM/c² (both exact), altitude and θ. */

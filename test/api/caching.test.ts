@@ -171,6 +171,52 @@ describe('one entry per canonical request', () => {
   });
 });
 
+describe('every route keys on its normalised request', () => {
+  // Pairs of requests that differ only in spelling, key order or written-out defaults.
+  const PAIRS: [string, unknown, unknown][] = [
+    [
+      '/v1/clocks',
+      { body: 'earth', a: { kind: 'static', point: { altitude: 0 } }, b: { kind: 'circular', point: { r: '26561.75 km' } } },
+      { b: { point: { r: 26561750 }, kind: 'circular', direction: 'prograde' }, a: { point: { altitude: '0 m', theta: '90 deg' }, kind: 'static' }, body: 'earth' },
+    ],
+    [
+      '/v1/proper-time',
+      { body: { mass: '10 Msun' }, interval: { kind: 'freeFall', from: '10 rg', to: '2 rg', start: 'rest' } },
+      { interval: { start: 'rest', to: '2 rg', from: '10.0 rg', kind: 'freeFall', theta: '90 deg' }, body: { mass: '1e1 Msun', spin: 0 } },
+    ],
+    [
+      '/v1/light/deflection',
+      { body: 'sun', ray: { closestApproach: '1 Rsun' } },
+      { body: 'sun', ray: { closestApproach: 6.957e8 }, direction: 'prograde' },
+    ],
+    [
+      '/v1/light/delay',
+      { body: 'sun', from: '1 AU', to: '1.5 AU', ray: { closestApproach: '1 Rsun' } },
+      { ray: { closestApproach: '695700 km' }, to: '224396806050 m', from: 149597870700, body: 'sun' },
+    ],
+    ['/v1/shadow', { body: { mass: '1 Msun' }, inclination: '17 deg' }, { body: { mass: '1 Msun' }, inclination: (17 * Math.PI) / 180, points: 256 }],
+    [
+      '/v1/orbits/precession',
+      { body: 'sun', orbit: { semiMajorAxis: '0.387 AU' } },
+      { body: 'sun', orbit: { semiMajorAxis: 0.387 * 149597870700, eccentricity: 0, inclination: 0 } },
+    ],
+  ];
+  it.each(PAIRS)('%s: equivalent requests share one entry', async (url, first, second) => {
+    const app = await fresh();
+    try {
+      const a = await app.inject({ method: 'POST', url, payload: first as object });
+      const b = await app.inject({ method: 'POST', url, payload: second as object });
+      expect(a.statusCode, a.body.slice(0, 300)).toBe(200);
+      expect(b.statusCode, b.body.slice(0, 300)).toBe(200);
+      expect(b.headers.etag).toBe(a.headers.etag);
+      expect(b.body).toBe(a.body);
+      expect(app.resultCache.stats()).toMatchObject({ misses: 1, hits: 1 });
+    } finally {
+      await app.close();
+    }
+  });
+});
+
 describe('request coalescing', () => {
   it('twenty identical requests at once are computed once', async () => {
     const app = await fresh();
