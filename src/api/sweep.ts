@@ -868,16 +868,35 @@ class LastSent {
  * canonical input (sweepCacheInput: key order, unit spellings and omitted defaults do not matter); CSV
  * is streamed as it is computed and not cached.
  */
+const CSV_CONTENT_TYPE = 'text/csv; charset=utf-8';
+
 export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWEEP_DEFAULT_MAX_POINTS, cache?: CoalescingCache): void {
   const lastSent = new LastSent();
   app.post('/v1/sweep', async (request: FastifyRequest, reply: FastifyReply) => {
-    if (prefersCsv(request.headers.accept)) {
-      const prepared = prepareSweep(request.body, maxPoints);
-      const columns = computeSweepColumns(prepared);
-      reply.type('text/csv; charset=utf-8');
-      return reply.send(Readable.from(sweepCsvChunks(prepared, columns)));
-    }
     const validated = parseOr400(sweepRequest, request.body);
+    if (prefersCsv(request.headers.accept)) {
+      // CSV: ETag and 304 like JSON; a cached copy is sent whole, a cold one streams as it is
+      // computed and is stored once complete (no coalescing: concurrent cold CSV requests each compute).
+      const csvKey = cacheKey(VERSION, '/v1/sweep.csv', sweepCacheInput(validated, maxPoints));
+      const csvEtag = etagFor(csvKey);
+      if (ifNoneMatchMatches(request.headers['if-none-match'], csvEtag)) {
+        return reply.code(304).header('etag', csvEtag).header('cache-control', POST_CACHE_CONTROL).send();
+      }
+      reply.header('etag', csvEtag).header('cache-control', POST_CACHE_CONTROL).type(CSV_CONTENT_TYPE);
+      const hit = cache ? await cache.get(csvKey).catch(() => undefined) : undefined;
+      if (hit) return reply.send(hit.body);
+      const prepared = prepareSweep(validated, maxPoints);
+      const columns = computeSweepColumns(prepared);
+      const chunks: string[] = [];
+      function* recording(): Generator<string> {
+        for (const chunk of sweepCsvChunks(prepared, columns)) {
+          chunks.push(chunk);
+          yield chunk;
+        }
+        if (cache) void cache.set(csvKey, { body: chunks.join(''), contentType: CSV_CONTENT_TYPE, etag: csvEtag }).catch(() => undefined);
+      }
+      return reply.send(Readable.from(recording()));
+    }
     const key = cacheKey(VERSION, '/v1/sweep', sweepCacheInput(validated, maxPoints));
     const etag = etagFor(key);
     if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) {

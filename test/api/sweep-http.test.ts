@@ -107,3 +107,22 @@ describe('POST /v1/sweep in the service', () => {
     expect(res.json<{ detail: string }>().detail).toMatch(/limit is 100 points/);
   });
 });
+
+describe('CSV sweeps are cached too', () => {
+  it('the repeat is the same bytes from the cache, and If-None-Match gets 304', async () => {
+    const csv = { accept: 'text/csv' };
+    const cold = await app().inject({ method: 'POST', url: '/v1/sweep', payload: request, headers: csv });
+    expect(cold.statusCode).toBe(200);
+    const etag = cold.headers.etag as string;
+    expect(etag).toMatch(/^"[0-9a-f]+"$/);
+    const hitsBefore = app().resultCache.stats().hits;
+    const warm = await app().inject({ method: 'POST', url: '/v1/sweep', payload: request, headers: csv });
+    expect(warm.body).toBe(cold.body);
+    expect(warm.headers['content-type']).toMatch(/^text\/csv/);
+    expect(app().resultCache.stats().hits).toBe(hitsBefore + 1);
+    const json = await app().inject({ method: 'POST', url: '/v1/sweep', payload: request });
+    expect(json.headers.etag).not.toBe(etag);
+    const notModified = await app().inject({ method: 'POST', url: '/v1/sweep', payload: request, headers: { ...csv, 'if-none-match': etag } });
+    expect(notModified.statusCode).toBe(304);
+  });
+});
