@@ -11,7 +11,7 @@ import { registerQuantities } from './api/quantities.js';
 import { COMPUTE_ROUTES } from './api/registry.js';
 import { service } from './api/responses.js';
 import { registerComputeRoute } from './api/route.js';
-import { registerSweepRoute } from './api/sweep.js';
+import { registerSweepRoute } from './api/sweep-route.js';
 import { resultCachePlugin } from './cache/plugin.js';
 import { defaultConfig, type Config } from './config.js';
 import { installErrorHandling, problemBody, sendProblem } from './error-handler.js';

@@ -9,18 +9,9 @@ import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { computeLocal } from '../../src/api/local.js';
 import { computeSpacetime } from '../../src/api/spacetime.js';
-import {
-  computeSweepColumns,
-  prefersCsv,
-  prepareSweep,
-  sweepCsvChunks,
-  sweepJson,
-  sweepResponse,
-  SWEEPABLE_QUANTITIES,
-  registerSweepRoute,
-  type PreparedSweep,
-  type SweepResponse,
-} from '../../src/api/sweep.js';
+import { computeSweepColumns, prepareSweep, sweepResponse, SWEEPABLE_QUANTITIES, type PreparedSweep, type SweepResponse } from '../../src/api/sweep.js';
+import { sweepCsvChunks, sweepJson } from '../../src/api/sweep-output.js';
+import { prefersCsv, registerSweepRoute } from '../../src/api/sweep-route.js';
 import { ProblemError } from '../../src/errors.js';
 import { installErrorHandling } from '../../src/error-handler.js';
 

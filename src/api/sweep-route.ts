@@ -1,0 +1,117 @@
+/**
+ * POST /v1/sweep over HTTP: content negotiation (JSON or CSV), the result cache, ETag and 304.
+ */
+import { Readable } from 'node:stream';
+import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
+import type { CoalescingCache } from '../cache/coalesce.js';
+import { etagFor, ifNoneMatchMatches, JSON_CONTENT_TYPE, POST_CACHE_CONTROL } from '../cache/http.js';
+import { cacheKey } from '../cache/key.js';
+import type { CacheEntry } from '../cache/types.js';
+import { VERSION } from '../version.js';
+import { parseOr400 } from './route.js';
+import { computeSweepColumns, prepareSweep, SWEEP_DEFAULT_MAX_POINTS, sweepCacheInput, sweepRequest } from './sweep.js';
+import { sweepCsvChunks, sweepJson } from './sweep-output.js';
+
+// ---------------------------------------------------------------------------------------------------
+// Route
+
+/** q-value of the most specific Accept range matching `type` ("text/csv"); 0 when none matches. */
+function acceptQ(accept: string, type: string): { q: number; order: number } {
+  const [major] = type.split('/');
+  let best = { q: 0, order: Number.POSITIVE_INFINITY, specificity: -1 };
+  accept.split(',').forEach((part, order) => {
+    const [range, ...params] = part.trim().toLowerCase().split(';');
+    const r = (range ?? '').trim();
+    const specificity = r === type ? 2 : r === `${major}/*` ? 1 : r === '*/*' ? 0 : -1;
+    if (specificity < 0 || specificity < best.specificity) return;
+    let q = 1;
+    for (const p of params) {
+      const [k, v] = p.trim().split('=');
+      if (k === 'q' && v !== undefined) q = Number(v);
+    }
+    if (!Number.isFinite(q)) q = 0;
+    best = { q, order, specificity };
+  });
+  return { q: best.q, order: best.order };
+}
+
+/** Whether the Accept header prefers CSV (text/csv) to JSON. */
+export function prefersCsv(accept: string | undefined): boolean {
+  if (!accept) return false;
+  const csv = acceptQ(accept, 'text/csv');
+  const json = acceptQ(accept, 'application/json');
+  return csv.q > json.q || (csv.q > 0 && csv.q === json.q && csv.order < json.order);
+}
+
+/**
+ * The bytes of the last cached document this route sent, kept with its entry: an identical repeat
+ * (the common case: a client asking the same sweep again) is sent without copying 1e6 numbers again.
+ * One slot, so it holds at most one extra copy of one document. The document is ASCII
+ * (sweepJsonChunks), so latin1 copies it byte for byte: a few ms for 1e6 points, where writing the
+ * string makes Node encode it to UTF-8 at a fraction of the speed.
+ */
+class LastSent {
+  private entry: CacheEntry | null = null;
+  private bytes: Buffer | null = null;
+
+  bytesOf(entry: CacheEntry): Buffer {
+    if (this.entry !== entry || this.bytes === null) {
+      this.bytes = Buffer.from(entry.body, 'latin1');
+      this.entry = entry;
+    }
+    return this.bytes;
+  }
+}
+
+/**
+ * Registers POST /v1/sweep: JSON by default, streamed CSV when Accept prefers text/csv. JSON results
+ * go through the result cache (with coalescing, a strong ETag and 304 on If-None-Match), keyed by the
+ * canonical input (sweepCacheInput: key order, unit spellings and omitted defaults do not matter); CSV
+ * is streamed as it is computed and not cached.
+ */
+const CSV_CONTENT_TYPE = 'text/csv; charset=utf-8';
+
+export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWEEP_DEFAULT_MAX_POINTS, cache?: CoalescingCache): void {
+  const lastSent = new LastSent();
+  app.post('/v1/sweep', async (request: FastifyRequest, reply: FastifyReply) => {
+    const validated = parseOr400(sweepRequest, request.body);
+    if (prefersCsv(request.headers.accept)) {
+      // CSV: ETag and 304 like JSON; a cached copy is sent whole, a cold one streams as it is
+      // computed and is stored once complete (no coalescing: concurrent cold CSV requests each compute).
+      const csvKey = cacheKey(VERSION, '/v1/sweep.csv', sweepCacheInput(validated, maxPoints));
+      const csvEtag = etagFor(csvKey);
+      if (ifNoneMatchMatches(request.headers['if-none-match'], csvEtag)) {
+        return reply.code(304).header('etag', csvEtag).header('cache-control', POST_CACHE_CONTROL).send();
+      }
+      reply.header('etag', csvEtag).header('cache-control', POST_CACHE_CONTROL).type(CSV_CONTENT_TYPE);
+      const hit = cache ? await cache.get(csvKey).catch(() => undefined) : undefined;
+      if (hit) return reply.send(hit.body);
+      const prepared = prepareSweep(validated, maxPoints);
+      const columns = computeSweepColumns(prepared);
+      const chunks: string[] = [];
+      function* recording(): Generator<string> {
+        for (const chunk of sweepCsvChunks(prepared, columns)) {
+          chunks.push(chunk);
+          yield chunk;
+        }
+        if (cache) void cache.set(csvKey, { body: chunks.join(''), contentType: CSV_CONTENT_TYPE, etag: csvEtag }).catch(() => undefined);
+      }
+      return reply.send(Readable.from(recording()));
+    }
+    const key = cacheKey(VERSION, '/v1/sweep', sweepCacheInput(validated, maxPoints));
+    const etag = etagFor(key);
+    if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) {
+      return reply.code(304).header('etag', etag).header('cache-control', POST_CACHE_CONTROL).send();
+    }
+    const produce = (): CacheEntry => {
+      const prepared = prepareSweep(validated, maxPoints);
+      return { body: sweepJson(prepared, computeSweepColumns(prepared)), contentType: JSON_CONTENT_TYPE, etag };
+    };
+    const entry = cache ? await cache.resolve(key, produce) : produce();
+    return reply
+      .header('etag', entry.etag)
+      .header('cache-control', POST_CACHE_CONTROL)
+      .header('content-type', entry.contentType)
+      .send(lastSent.bytesOf(entry));
+  });
+}
