@@ -19,9 +19,9 @@ const schema = z.object({
   REQUEST_TIMEOUT_MS: positiveInt.max(600_000).default(30_000),
   /** Time allowed for in-flight requests on shutdown, ms. */
   SHUTDOWN_GRACE_MS: positiveInt.max(600_000).default(10_000),
-  /** Bound of the in-memory result cache, bytes (128 MiB); 0 switches the cache off. */
   /** Largest number of grid points in one sweep (larger: 413). */
   SWEEP_MAX_POINTS: positiveInt.max(20_000_000).default(1_000_000),
+  /** Bound of the in-memory result cache, bytes (128 MiB); 0 switches the cache off. */
   CACHE_MAX_BYTES: z.coerce
     .number({ error: 'CACHE_MAX_BYTES must be a number of bytes (0 switches the cache off)' })
     .int({ error: 'CACHE_MAX_BYTES must be a whole number of bytes' })

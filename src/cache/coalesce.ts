@@ -2,7 +2,7 @@
  * The front every compute route talks to: identical requests that arrive together share one lookup
  * (and, on a miss, one computation), whatever store sits behind it.
  */
-import type { CacheEntry, CacheStats, ResultCache } from './types.js';
+import type { CacheEntry, CacheHealth, CacheStats, ResultCache } from './types.js';
 
 /**
  * Wraps a store with request coalescing: a Map of in-flight lookups keyed by the cache key. A request
@@ -67,5 +67,15 @@ export class CoalescingCache implements ResultCache {
   /** The store's counters with this front's coalesced count. */
   stats(): CacheStats {
     return { ...this.store.stats(), coalesced: this.coalesced };
+  }
+
+  /** The store's health. */
+  health(): CacheHealth {
+    return this.store.health();
+  }
+
+  /** Closes the store. */
+  close(): Promise<void> {
+    return this.store.close();
   }
 }

@@ -3,7 +3,7 @@
  * entry), and the store used when the cache is switched off (CACHE_MAX_BYTES=0).
  */
 import { LRUCache } from 'lru-cache';
-import type { CacheEntry, CacheStats, ResultCache } from './types.js';
+import type { CacheEntry, CacheHealth, CacheStats, ResultCache } from './types.js';
 
 /**
  * Bytes charged to an entry beyond its strings: the LRU's slot arrays and index map, the entry
@@ -65,6 +65,17 @@ export class MemoryCache implements ResultCache {
       maxBytes: this.maxBytes,
     };
   }
+
+  /** Always ready: the store is this process's memory. */
+  health(): CacheHealth {
+    return { backend: 'memory', state: 'ready' };
+  }
+
+  /** Drops every entry. */
+  close(): Promise<void> {
+    this.lru.clear();
+    return Promise.resolve();
+  }
 }
 
 /** The store when caching is off: keeps nothing, so every lookup is a miss. */
@@ -85,6 +96,16 @@ export class DisabledCache implements ResultCache {
   /** Misses only; every size is 0. */
   stats(): CacheStats {
     return { hits: 0, misses: this.misses, evictions: 0, coalesced: 0, entries: 0, bytes: 0, maxBytes: 0 };
+  }
+
+  /** Ready: keeping nothing is its normal state. */
+  health(): CacheHealth {
+    return { backend: 'disabled', state: 'ready' };
+  }
+
+  /** Nothing to release. */
+  close(): Promise<void> {
+    return Promise.resolve();
   }
 }
 

@@ -20,7 +20,10 @@ export interface ResultCacheOptions {
 }
 
 const plugin: FastifyPluginAsync<ResultCacheOptions> = async (app, options) => {
-  app.decorate('resultCache', new CoalescingCache(createResultCache(options.maxBytes)));
+  const cache = new CoalescingCache(createResultCache(options.maxBytes));
+  app.decorate('resultCache', cache);
+  // The store's connections close with the app (after in-flight requests have finished).
+  app.addHook('onClose', async () => cache.close());
 };
 
 /** Named plugin (not encapsulated, so the decorator is visible to the whole app). */

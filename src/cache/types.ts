@@ -32,6 +32,19 @@ export interface CacheStats {
   maxBytes: number;
 }
 
+/** Whether a store can serve now, for the readiness probe and metrics. */
+export interface CacheHealth {
+  /** Which store: the in-memory LRU, the switched-off store, or a shared one. */
+  backend: 'memory' | 'disabled' | 'redis';
+  /**
+   * 'ready': serving from the store. 'degraded': the store is unreachable and every request is
+   * computed (answers stay correct, only slower); a shared store reports it while it reconnects.
+   */
+  state: 'ready' | 'degraded';
+  /** Why the store is degraded, in words (no secrets such as a password in a URL). */
+  detail?: string;
+}
+
 /** A store of computed responses keyed by the canonical request key (key.ts). */
 export interface ResultCache {
   /** The entry under key, or undefined; counts a hit or a miss. */
@@ -40,4 +53,8 @@ export interface ResultCache {
   set(key: string, entry: CacheEntry): Promise<void>;
   /** Current counters and sizes. */
   stats(): CacheStats;
+  /** Whether the store serves now. */
+  health(): CacheHealth;
+  /** Releases connections and timers; the store is not used afterwards. */
+  close(): Promise<void>;
 }

@@ -5,7 +5,7 @@
 import { describe, expect, it, vi } from 'vitest';
 import { CoalescingCache } from '../../src/cache/coalesce.js';
 import { MemoryCache } from '../../src/cache/memory.js';
-import type { CacheEntry, CacheStats, ResultCache } from '../../src/cache/types.js';
+import type { CacheEntry, CacheHealth, CacheStats, ResultCache } from '../../src/cache/types.js';
 
 const entry = (body: string): CacheEntry => ({ body, contentType: 'application/json; charset=utf-8', etag: '"k"' });
 
@@ -26,6 +26,12 @@ class SlowStore implements ResultCache {
   }
   stats(): CacheStats {
     return this.inner.stats();
+  }
+  health(): CacheHealth {
+    return this.inner.health();
+  }
+  close(): Promise<void> {
+    return this.inner.close();
   }
 }
 
@@ -85,6 +91,8 @@ describe('CoalescingCache', () => {
       get: () => Promise.reject(new Error('store down')),
       set: () => Promise.reject(new Error('store down')),
       stats: () => ({ hits: 0, misses: 0, evictions: 0, coalesced: 0, entries: 0, bytes: 0, maxBytes: 0 }),
+      health: () => ({ backend: 'redis', state: 'degraded', detail: 'store down' }),
+      close: () => Promise.resolve(),
     };
     const cache = new CoalescingCache(broken);
     await expect(cache.resolve('k', () => entry('{"y":3}'))).resolves.toMatchObject({ body: '{"y":3}' });

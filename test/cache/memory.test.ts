@@ -102,3 +102,14 @@ describe('DisabledCache and createResultCache', () => {
     expect(cache.stats().maxBytes).toBe(4096);
   });
 });
+
+describe('health and close', () => {
+  it('the in-memory and disabled stores are always ready; close empties the LRU', async () => {
+    const lru = new MemoryCache(1 << 20);
+    await lru.set(key(1), entry(10));
+    expect(lru.health()).toEqual({ backend: 'memory', state: 'ready' });
+    await lru.close();
+    expect(lru.stats().entries).toBe(0);
+    expect(new DisabledCache().health()).toEqual({ backend: 'disabled', state: 'ready' });
+  });
+});
