@@ -5,7 +5,7 @@
 import { z } from 'zod';
 import { canonicalBody } from '../cache/key.js';
 import { horizonProperties } from '../physics/horizon.js';
-import { characteristicOrbits } from '../physics/orbits.js';
+import { characteristicOrbits } from '../physics/characteristic-orbits.js';
 import { BLACK_HOLE_ONLY, BODY_QUANTITIES, NAKED, SURFACE_ONLY, type BodyQuantity } from '../physics/sweep-body.js';
 import { evaluateLocal } from '../physics/local.js';
 import { ergosurfaceRadius } from '../physics/spacetime.js';

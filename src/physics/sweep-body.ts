@@ -9,7 +9,7 @@
  */
 import { horizonProperties, type HorizonProperties } from './horizon.js';
 import { evaluateLocal } from './local.js';
-import { characteristicOrbits } from './orbits.js';
+import { characteristicOrbits } from './characteristic-orbits.js';
 import { ergosurfaceRadius, type KerrNewman } from './spacetime.js';
 import { bodyDomainCode, REASON, ReasonTable, SI_NOT_FINITE, type SweepParam } from './sweep.js';
 

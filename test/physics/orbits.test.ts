@@ -10,21 +10,16 @@ import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
-  MAX_ROOT_ITERATIONS,
-  SCAN_CELLS,
   characteristicOrbit,
   characteristicOrbits,
-  characteristicRadiiByRootFinding,
-  circularOrbit,
   kerrIsco,
   kerrMarginallyBoundOrbit,
   kerrPhotonOrbit,
   type CharacteristicOrbit,
   type CharacteristicOrbitKind,
-  type CircularOrbit,
-  type CircularOrbitResult,
-  type OrbitDirection,
-} from '../../src/physics/orbits.js';
+} from '../../src/physics/characteristic-orbits.js';
+import { characteristicRadiiByRootFinding, MAX_ROOT_ITERATIONS, SCAN_CELLS } from '../../src/physics/orbit-roots.js';
+import { circularOrbit, type CircularOrbit, type CircularOrbitResult, type OrbitDirection } from '../../src/physics/orbits.js';
 import { circularOrbitAngularVelocity, stationaryObserver } from '../../src/physics/observers.js';
 import { horizons, type KerrNewman } from '../../src/physics/spacetime.js';
 import { C, GM_SUN } from '../../src/units/constants.js';
