@@ -2,7 +2,7 @@
  * The sweep section of `npm run bench`, one table for one 1e6-point case (bench/cases/sweep-*.ts):
  *
  * (a) compute rate: computeSweepColumns (the physics pass over the typed-array grid, from the compiled
- *     build dist/src/api/sweep.js) in this process, in points/s, against numpy evaluating the same
+ *     build dist/src/api/sweep-columns.js, after prepareSweep from sweep-prepare.js) in this process, in points/s, against numpy evaluating the same
  *     closed form on the same grid (bench/rivals/numpy_sweep.py) in the same run. Target: ≥ 0.5 of
  *     numpy's rate.
  * (b) over HTTP: the service (dist/src/server.js) started as a child process for this section alone;
@@ -31,8 +31,10 @@ export interface SweepCase {
   rival: { spin: number; thetaDeg: [number, number, number]; rRg: [number, number, number] };
 }
 
-type SweepModule = typeof import('../src/api/sweep.js');
-const SWEEP_MODULE = 'dist/src/api/sweep.js';
+type ColumnsModule = typeof import('../src/api/sweep-columns.js');
+type PrepareModule = typeof import('../src/api/sweep-prepare.js');
+const SWEEP_MODULE = 'dist/src/api/sweep-columns.js';
+const PREPARE_MODULE = 'dist/src/api/sweep-prepare.js';
 const RIVAL_SCRIPT = 'bench/rivals/numpy_sweep.py';
 const RIVAL_TIMEOUT_MS = 300_000;
 /** One call evaluates 1e6 points (tens of ms), so a round holds a few calls rather than TIMING.minCalls. */
@@ -166,7 +168,10 @@ const asError = (err: unknown) => (err instanceof Error ? err : new Error(String
 
 /** Measures each case: the HTTP rows on a fresh service, then the in-process rate and its rival. */
 export async function measureSweeps(root: string, cases: readonly SweepCase[]): Promise<SweepResult[]> {
-  const mod = (await import(pathToFileURL(join(root, SWEEP_MODULE)).href)) as SweepModule;
+  const mod = {
+    ...((await import(pathToFileURL(join(root, SWEEP_MODULE)).href)) as ColumnsModule),
+    ...((await import(pathToFileURL(join(root, PREPARE_MODULE)).href)) as PrepareModule),
+  };
   const out: SweepResult[] = [];
   for (const [i, c] of cases.entries()) {
     process.stderr.write(`[sweep ${i + 1}/${cases.length}] ${c.name}\n`);

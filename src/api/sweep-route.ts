@@ -9,7 +9,10 @@ import { cacheKey } from '../cache/key.js';
 import type { CacheEntry } from '../cache/types.js';
 import { VERSION } from '../version.js';
 import { parseOr400 } from './route.js';
-import { computeSweepColumns, prepareSweep, SWEEP_DEFAULT_MAX_POINTS, sweepCacheInput, sweepRequest } from './sweep.js';
+import { SWEEP_DEFAULT_MAX_POINTS, sweepRequest } from './sweep.js';
+import { computeSweepColumns } from './sweep-columns.js';
+import { sweepCacheInput } from './sweep-key.js';
+import { prepareSweep } from './sweep-prepare.js';
 import { sweepCsvChunks, sweepJson } from './sweep-output.js';
 
 // ---------------------------------------------------------------------------------------------------
