@@ -6,8 +6,12 @@
  * typed, promise-based, per-command timeouts). The `redis` package adds only Redis Stack modules.
  *
  * Redis is an optimisation here, never a dependency of an answer:
- * - every command has a bounded timeout (commandTimeoutMs) and the offline queue is off, so a Redis
- *   that is down or stalled costs a request at most that long, after which it is computed;
+ * - every command is bounded by commandTimeoutMs (our own timer: the client's timeout only covers a
+ *   command not yet written), and the offline queue is off, so a Redis that is down or stalled costs a
+ *   request at most that long, after which it is computed;
+ * - after FAILURES_BEFORE_DEGRADED failures in a row on an open connection (a stalled server), the
+ *   store stops sending commands except one probe per PROBE_INTERVAL_MS, so requests do not each wait
+ *   out the timeout and replies owed do not pile up; the first probe that succeeds restores it;
  * - a failed read counts as a miss and a failed write is dropped; both are counted in `errors` and
  *   neither throws;
  * - the client reconnects with capped exponential backoff for as long as the process runs; health()
@@ -61,6 +65,22 @@ export function reconnectDelay(retries: number, random: () => number = Math.rand
 /** Consecutive failed commands on a connection that looks open after which the store reports 'degraded'. */
 export const FAILURES_BEFORE_DEGRADED = 3;
 
+/** While Redis does not answer on an open connection, one command per this many ms is let through as a probe. */
+export const PROBE_INTERVAL_MS = 1_000;
+
+/** Thrown when a command is skipped while Redis is not answering (only probes are sent). */
+class SkippedError extends Error {}
+
+/** Rejects when the promise has not settled within ms (the late result, if any, is dropped). */
+function withTimeout<T>(promise: Promise<T>, ms: number): Promise<T> {
+  let timer: NodeJS.Timeout | undefined;
+  const expired = new Promise<never>((_, reject) => {
+    timer = setTimeout(() => reject(new Error(`no answer within ${ms} ms`)), ms);
+  });
+  promise.catch(() => undefined); // a rejection after the timeout is not unhandled
+  return Promise.race([promise, expired]).finally(() => clearTimeout(timer));
+}
+
 /** The header before a stored body: version, content type and ETag. */
 interface ValueHeader {
   v: string;
@@ -98,12 +118,14 @@ export function decodeValue(version: string, value: string): { entry?: CacheEntr
 
 /** Counters of the Redis store beyond CacheStats. */
 export interface RedisCacheCounters {
-  /** Commands that failed (timeout, connection down, server error). */
+  /** Commands that failed (timeout, connection down, server error) or were skipped while Redis did not answer. */
   errors: number;
   /** Values read that another version (or something else) wrote: served as misses. */
   mismatches: number;
   /** Entries not stored because they exceed maxEntryBytes. */
   oversize: number;
+  /** Commands not sent because Redis was not answering (between probes); also counted in errors. */
+  skipped: number;
 }
 
 type State = 'connecting' | 'ready' | 'degraded' | 'closed';
@@ -115,9 +137,11 @@ export class RedisCache implements ResultCache {
   private state: State = 'connecting';
   private reason = 'not connected yet';
   private consecutiveFailures = 0;
+  /** Time before which commands are skipped (a stalled Redis gets one probe per PROBE_INTERVAL_MS). */
+  private skipUntil = 0;
   private hits = 0;
   private misses = 0;
-  private readonly counters: RedisCacheCounters = { errors: 0, mismatches: 0, oversize: 0 };
+  private readonly counters: RedisCacheCounters = { errors: 0, mismatches: 0, oversize: 0, skipped: 0 };
   private readyWaiters: Array<() => void> = [];
 
   constructor(private readonly options: RedisCacheOptions) {
@@ -171,6 +195,7 @@ export class RedisCache implements ResultCache {
     const was = this.state;
     this.state = 'ready';
     this.consecutiveFailures = 0;
+    this.skipUntil = 0;
     this.reason = '';
     if (was === 'connecting') this.options.logger.info({ redis: this.where }, 'result cache: connected to Redis');
     else this.options.logger.info({ redis: this.where }, 'result cache: reconnected to Redis; caching resumes');
@@ -188,6 +213,30 @@ export class RedisCache implements ResultCache {
         'result cache: Redis unreachable; answering without it (computing) and reconnecting',
       );
       this.state = 'degraded';
+    }
+  }
+
+  /**
+   * Runs one command within the timeout, keeping the counters and the state. While Redis is not
+   * answering on an open connection, commands between probes are skipped (SkippedError).
+   */
+  private async command<T>(run: () => Promise<T>): Promise<T> {
+    if (this.consecutiveFailures >= FAILURES_BEFORE_DEGRADED && this.client.isReady) {
+      const now = Date.now();
+      if (now < this.skipUntil) {
+        this.counters.errors += 1;
+        this.counters.skipped += 1;
+        throw new SkippedError('skipped: Redis not answering');
+      }
+      this.skipUntil = now + PROBE_INTERVAL_MS;
+    }
+    try {
+      const result = await withTimeout(run(), this.options.commandTimeoutMs);
+      this.onCommandSucceeded();
+      return result;
+    } catch (err) {
+      this.onCommandFailed(err);
+      throw err;
     }
   }
 
@@ -223,10 +272,8 @@ export class RedisCache implements ResultCache {
     }
     let value: string | null;
     try {
-      value = (await this.client.get(this.redisKey(key))) as string | null;
-      this.onCommandSucceeded();
-    } catch (err) {
-      this.onCommandFailed(err);
+      value = (await this.command(() => this.client.get(this.redisKey(key)))) as string | null;
+    } catch {
       this.misses += 1;
       return undefined;
     }
@@ -253,10 +300,9 @@ export class RedisCache implements ResultCache {
       return;
     }
     try {
-      await this.client.set(this.redisKey(key), value, { expiration: { type: 'EX', value: this.options.ttlSeconds } });
-      this.onCommandSucceeded();
-    } catch (err) {
-      this.onCommandFailed(err);
+      await this.command(() => this.client.set(this.redisKey(key), value, { expiration: { type: 'EX', value: this.options.ttlSeconds } }));
+    } catch {
+      // counted by command(); the next request for this key computes again
     }
   }
 
@@ -300,7 +346,7 @@ export class RedisCache implements ResultCache {
     if (this.state === 'closed') return;
     this.state = 'closed';
     try {
-      if (this.client.isReady) await this.client.close();
+      if (this.client.isReady) await withTimeout(this.client.close(), this.options.commandTimeoutMs);
       else this.client.destroy();
     } catch {
       this.client.destroy();
