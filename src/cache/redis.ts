@@ -8,7 +8,8 @@
  * Redis is an optimisation here, never a dependency of an answer:
  * - every command is bounded by commandTimeoutMs (our own timer: the client's timeout only covers a
  *   command not yet written), and the offline queue is off, so a Redis that is down or stalled costs a
- *   request at most that long, after which it is computed;
+ *   request at most that long, after which it is computed (the bound must also cover moving the
+ *   largest entry, maxEntryBytes: 32 MiB take about 0.3 s at 1 Gbit/s);
  * - after FAILURES_BEFORE_DEGRADED failures in a row on an open connection (a stalled server), the
  *   store stops sending commands except one probe per PROBE_INTERVAL_MS, so requests do not each wait
  *   out the timeout and replies owed do not pile up; the first probe that succeeds restores it;
@@ -22,7 +23,7 @@
  * hashes the version too), and the value starts with a header naming the version, checked on every read,
  * so replicas of different versions sharing one Redis never serve each other's results.
  */
-import { createClient, type RedisClientType } from '@redis/client';
+import { createClient, ErrorReply, type RedisClientType } from '@redis/client';
 import { redactUrl } from '../config.js';
 import type { CacheEntry, CacheHealth, CacheStats, ResultCache } from './types.js';
 
@@ -240,9 +241,13 @@ export class RedisCache implements ResultCache {
     }
   }
 
-  /** A command failed on a connection that may still look open (a timeout, say). */
+  /**
+   * A command failed: a timeout or a lost connection (towards 'degraded'), or an error reply from a
+   * Redis that answers (out of memory, say: counted, but Redis is there).
+   */
   private onCommandFailed(err: unknown): void {
     this.counters.errors += 1;
+    if (err instanceof ErrorReply) return;
     this.consecutiveFailures += 1;
     if (this.state === 'ready' && this.consecutiveFailures >= FAILURES_BEFORE_DEGRADED) {
       this.reason = `${this.consecutiveFailures} commands failed in a row (${errorText(err)})`;

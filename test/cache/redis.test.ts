@@ -135,6 +135,19 @@ describe('RedisCache against redis-server', () => {
     expect(await store.get(KEY + 'small')).toBeDefined();
   });
 
+  it('counts error replies (Redis out of memory) without turning degraded: Redis is there', async () => {
+    const store = await open();
+    await redis.command('CONFIG', 'SET', 'maxmemory', '1'); // noeviction (the default): every write refused
+    try {
+      for (let i = 0; i < FAILURES_BEFORE_DEGRADED + 1; i++) await store.set(`${KEY}oom${i}`, entry('{}'));
+    } finally {
+      await redis.command('CONFIG', 'SET', 'maxmemory', '0');
+    }
+    expect(store.stats().errors).toBe(FAILURES_BEFORE_DEGRADED + 1);
+    expect(store.health().state).toBe('ready');
+    expect(await store.get(`${KEY}oom0`)).toBeUndefined();
+  });
+
   it('a stalled Redis costs each command at most its timeout, turns degraded, and recovers when it answers', async () => {
     const logger = recordingLogger();
     const store = await open({ commandTimeoutMs: 200, logger });
