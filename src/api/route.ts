@@ -2,8 +2,8 @@
  * Compute routes: one definition gives the POST (JSON body) route, the optional GET (query string)
  * route, request validation with zod, the OpenAPI description, and caching: each validated request
  * gets a canonical key (cache/key.ts), its serialised 200 response is kept in the result cache and
- * served byte-identical on repeats, carries a strong ETag and Cache-Control, and a matching
- * If-None-Match gets 304. Handlers receive validated input and return a plain object; errors are
+ * served byte-identical on repeats, carries a strong ETag, Cache-Control and x-cache (hit, miss or
+ * coalesced), and a matching If-None-Match gets 304. Handlers receive validated input and return a plain object; errors are
  * thrown as ProblemError, rendered by the error handler, and never cached.
  */
 import fastJson from 'fast-json-stringify';

@@ -1,5 +1,6 @@
 /**
- * POST /v1/sweep over HTTP: content negotiation (JSON or CSV), the result cache, ETag and 304.
+ * POST /v1/sweep over HTTP: content negotiation (JSON or CSV), the result cache (x-cache header), ETag
+ * and 304.
  */
 import { Readable } from 'node:stream';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
