@@ -12,7 +12,7 @@ import { defaultConfig } from '../../src/config.js';
 import { decodeValue, encodeValue, FAILURES_BEFORE_DEGRADED, PROBE_INTERVAL_MS, reconnectDelay, RECONNECT_MAX_DELAY_MS, RedisCache, type CacheLogger } from '../../src/cache/redis.js';
 import type { CacheEntry } from '../../src/cache/types.js';
 import { VERSION } from '../../src/version.js';
-import { TestRedis } from '../redis-server.js';
+import { requireRedisServer, TestRedis } from '../redis-server.js';
 
 const entry = (body: string): CacheEntry => ({ body, contentType: 'application/json; charset=utf-8', etag: `"${'a'.repeat(64)}"` });
 const KEY = 'f'.repeat(64);
@@ -59,6 +59,19 @@ describe('reconnectDelay', () => {
     expect(reconnectDelay(3, noJitter)).toBe(400);
     expect(reconnectDelay(10, noJitter)).toBe(RECONNECT_MAX_DELAY_MS);
     expect(reconnectDelay(1e6, () => 0.999)).toBeLessThan(RECONNECT_MAX_DELAY_MS + 100);
+  });
+});
+
+describe('the test Redis', () => {
+  it('without redis-server the tests fail saying how to install it (no silent skip)', () => {
+    const saved = process.env.PATH;
+    process.env.PATH = '/nonexistent';
+    try {
+      expect(() => requireRedisServer()).toThrow(/redis-server not found.*apt-get install -y redis-server/);
+    } finally {
+      process.env.PATH = saved;
+    }
+    expect(() => requireRedisServer()).not.toThrow();
   });
 });
 
