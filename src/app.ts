@@ -49,7 +49,21 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   });
   installErrorHandling(app);
 
-  await app.register(resultCachePlugin, { maxBytes: config.CACHE_MAX_BYTES });
+  await app.register(resultCachePlugin, {
+    maxBytes: config.CACHE_MAX_BYTES,
+    ...(config.REDIS_URL === undefined
+      ? {}
+      : {
+          redis: {
+            url: config.REDIS_URL,
+            keyPrefix: config.REDIS_KEY_PREFIX,
+            ttlSeconds: config.CACHE_TTL_SECONDS,
+            commandTimeoutMs: config.REDIS_COMMAND_TIMEOUT_MS,
+            connectTimeoutMs: config.REDIS_CONNECT_TIMEOUT_MS,
+            maxEntryBytes: config.REDIS_MAX_ENTRY_BYTES,
+          },
+        }),
+  });
   for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route, app.resultCache);
   registerSweepRoute(app, config.SWEEP_MAX_POINTS, app.resultCache);
   registerQuantities(app);

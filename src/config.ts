@@ -28,6 +28,27 @@ const schema = z.object({
     .min(0, { error: 'CACHE_MAX_BYTES must not be negative (0 switches the cache off)' })
     .max(MAX_CACHE_BYTES, { error: `CACHE_MAX_BYTES must not exceed ${MAX_CACHE_BYTES} (16 GiB)` })
     .default(134_217_728),
+
+  // ---- Shared result cache (Redis). REDIS_URL set: Redis replaces the in-memory LRU. ----
+  /** redis:// or rediss:// URL of a Redis shared by the replicas; unset keeps the in-memory LRU. */
+  REDIS_URL: z
+    .url({ protocol: /^rediss?$/, error: 'REDIS_URL must be a redis:// or rediss:// URL' })
+    .optional(),
+  /** Prefix of every Redis key (the service version follows it), so several services can share one Redis. */
+  REDIS_KEY_PREFIX: z
+    .string()
+    .max(100)
+    .regex(/^[A-Za-z0-9:._-]*$/, { error: 'REDIS_KEY_PREFIX may hold letters, digits and : . _ - only' })
+    .default('spacetide:'),
+  /** Longest wait for one Redis command, ms; then the request computes without the cache. */
+  REDIS_COMMAND_TIMEOUT_MS: positiveInt.max(60_000).default(500),
+  /** Longest wait for a Redis connection (at start-up and per reconnection attempt), ms. */
+  REDIS_CONNECT_TIMEOUT_MS: positiveInt.max(60_000).default(2_000),
+  /** Largest entry stored in Redis, bytes (32 MiB); larger results are computed each time. */
+  REDIS_MAX_ENTRY_BYTES: positiveInt.max(512 * 1024 * 1024).default(33_554_432),
+  /** Lifetime of a Redis entry, seconds (1 day). */
+  CACHE_TTL_SECONDS: positiveInt.max(365 * 86_400).default(86_400),
+  // ---- end of the shared result cache block ----
 });
 
 export type Config = z.infer<typeof schema>;
@@ -44,10 +65,19 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
   }
   const result = schema.safeParse(picked);
   if (!result.success) {
-    const lines = result.error.issues.map((i) => `${i.path.join('.')}: ${i.message} (got "${picked[String(i.path[0])]}")`);
+    const lines = result.error.issues.map((i) => {
+      const name = String(i.path[0]);
+      const got = name === 'REDIS_URL' ? redactUrl(picked[name] ?? '') : picked[name];
+      return `${i.path.join('.')}: ${i.message} (got "${got}")`;
+    });
     throw new ConfigError(`invalid configuration:\n  ${lines.join('\n  ')}`);
   }
   return result.data;
+}
+
+/** A URL with its user information (user name, password) replaced by "***", for messages and logs. */
+export function redactUrl(url: string): string {
+  return url.replace(/^([a-z][a-z0-9+.-]*:\/\/)[^/?#]*@/i, '$1***@');
 }
 
 /** Defaults, for tests and for building the app without an environment. */

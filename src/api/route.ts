@@ -2,15 +2,15 @@
  * Compute routes: one definition gives the POST (JSON body) route, the optional GET (query string)
  * route, request validation with zod, the OpenAPI description, and caching: each validated request
  * gets a canonical key (cache/key.ts), its serialised 200 response is kept in the result cache and
- * served byte-identical on repeats, carries a strong ETag and Cache-Control, and a matching
- * If-None-Match gets 304. Handlers receive validated input and return a plain object; errors are
+ * served byte-identical on repeats, carries a strong ETag, Cache-Control and x-cache (hit, miss or
+ * coalesced), and a matching If-None-Match gets 304. Handlers receive validated input and return a plain object; errors are
  * thrown as ProblemError, rendered by the error handler, and never cached.
  */
 import fastJson from 'fast-json-stringify';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { z } from 'zod';
 import type { CoalescingCache } from '../cache/coalesce.js';
-import { etagFor, GET_CACHE_CONTROL, ifNoneMatchMatches, JSON_CONTENT_TYPE, POST_CACHE_CONTROL } from '../cache/http.js';
+import { CACHE_STATUS_HEADER, etagFor, GET_CACHE_CONTROL, ifNoneMatchMatches, JSON_CONTENT_TYPE, POST_CACHE_CONTROL } from '../cache/http.js';
 import { cacheKey } from '../cache/key.js';
 import type { CacheEntry } from '../cache/types.js';
 import { ProblemError, type FieldError } from '../errors.js';
@@ -104,12 +104,17 @@ export function registerComputeRoute<TIn, TQuery>(app: FastifyInstance, route: C
     if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) {
       return reply.code(304).header('etag', etag).header('cache-control', cacheControl).send();
     }
-    const entry = await cache.resolve(
+    const { entry, status } = await cache.resolveWithStatus(
       key,
       (): CacheEntry => ({ body: serialize(route.compute(input)), contentType: JSON_CONTENT_TYPE, etag }),
     );
     // Headers only on success: a problem response carries neither the ETag nor Cache-Control.
-    return reply.header('etag', entry.etag).header('cache-control', cacheControl).header('content-type', entry.contentType).send(entry.body);
+    return reply
+      .header('etag', entry.etag)
+      .header('cache-control', cacheControl)
+      .header(CACHE_STATUS_HEADER, status)
+      .header('content-type', entry.contentType)
+      .send(entry.body);
   };
 
   app.post(route.path, async (request: FastifyRequest, reply: FastifyReply) => {

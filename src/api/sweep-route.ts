@@ -1,10 +1,11 @@
 /**
- * POST /v1/sweep over HTTP: content negotiation (JSON or CSV), the result cache, ETag and 304.
+ * POST /v1/sweep over HTTP: content negotiation (JSON or CSV), the result cache (x-cache header), ETag
+ * and 304.
  */
 import { Readable } from 'node:stream';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import type { CoalescingCache } from '../cache/coalesce.js';
-import { etagFor, ifNoneMatchMatches, JSON_CONTENT_TYPE, POST_CACHE_CONTROL } from '../cache/http.js';
+import { CACHE_STATUS_HEADER, etagFor, ifNoneMatchMatches, JSON_CONTENT_TYPE, POST_CACHE_CONTROL } from '../cache/http.js';
 import { cacheKey } from '../cache/key.js';
 import type { CacheEntry } from '../cache/types.js';
 import { VERSION } from '../version.js';
@@ -88,7 +89,8 @@ export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWE
       }
       reply.header('etag', csvEtag).header('cache-control', POST_CACHE_CONTROL).type(CSV_CONTENT_TYPE);
       const hit = cache ? await cache.get(csvKey).catch(() => undefined) : undefined;
-      if (hit) return reply.send(hit.body);
+      if (hit) return reply.header(CACHE_STATUS_HEADER, 'hit').send(hit.body);
+      reply.header(CACHE_STATUS_HEADER, 'miss');
       const prepared = prepareSweep(validated, maxPoints);
       const columns = computeSweepColumns(prepared);
       const chunks: string[] = [];
@@ -110,9 +112,10 @@ export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWE
       const prepared = prepareSweep(validated, maxPoints);
       return { body: sweepJson(prepared, computeSweepColumns(prepared)), contentType: JSON_CONTENT_TYPE, etag };
     };
-    const entry = cache ? await cache.resolve(key, produce) : produce();
+    const { entry, status } = cache ? await cache.resolveWithStatus(key, produce) : { entry: produce(), status: 'miss' };
     return reply
       .header('etag', entry.etag)
+      .header(CACHE_STATUS_HEADER, status)
       .header('cache-control', POST_CACHE_CONTROL)
       .header('content-type', entry.contentType)
       .send(lastSent.bytesOf(entry));

@@ -10,8 +10,20 @@ import type { CacheEntry, CacheHealth, CacheStats, ResultCache } from './types.j
  * `coalesced`; so hits + misses + coalesced is the number of requests resolved, and misses is the
  * number of computations.
  */
+/**
+ * How a request's entry was found, as the `x-cache` response header tells it: 'hit' from the store,
+ * 'miss' computed for this request, 'coalesced' shared with an identical request already in flight.
+ */
+export type CacheStatus = 'hit' | 'miss' | 'coalesced';
+
+/** An entry and how it was found. */
+export interface Resolved {
+  entry: CacheEntry;
+  status: CacheStatus;
+}
+
 export class CoalescingCache implements ResultCache {
-  private readonly inFlight = new Map<string, Promise<CacheEntry>>();
+  private readonly inFlight = new Map<string, Promise<Resolved>>();
   private coalesced = 0;
 
   constructor(readonly store: ResultCache) {}
@@ -21,11 +33,16 @@ export class CoalescingCache implements ResultCache {
    * (synchronously; it may throw, and then every request that joined gets the same error and nothing
    * is stored) and stores its result. A store that fails to read or write never fails the request.
    */
-  resolve(key: string, produce: () => CacheEntry): Promise<CacheEntry> {
+  async resolve(key: string, produce: () => CacheEntry): Promise<CacheEntry> {
+    return (await this.resolveWithStatus(key, produce)).entry;
+  }
+
+  /** resolve(), also telling whether the entry was a hit, a miss (computed) or coalesced. */
+  resolveWithStatus(key: string, produce: () => CacheEntry): Promise<Resolved> {
     const pending = this.inFlight.get(key);
     if (pending !== undefined) {
       this.coalesced += 1;
-      return pending;
+      return pending.then(({ entry }) => ({ entry, status: 'coalesced' as const }));
     }
     const lookup = this.lookup(key, produce);
     this.inFlight.set(key, lookup);
@@ -37,21 +54,21 @@ export class CoalescingCache implements ResultCache {
   }
 
   /** Store first, then produce and store. */
-  private async lookup(key: string, produce: () => CacheEntry): Promise<CacheEntry> {
+  private async lookup(key: string, produce: () => CacheEntry): Promise<Resolved> {
     let hit: CacheEntry | undefined;
     try {
       hit = await this.store.get(key);
     } catch {
       hit = undefined; // the store is an optimisation: an unreadable one means compute
     }
-    if (hit !== undefined) return hit;
+    if (hit !== undefined) return { entry: hit, status: 'hit' };
     const entry = produce();
     try {
       await this.store.set(key, entry);
     } catch {
       // an unwritable store only costs the next request a computation
     }
-    return entry;
+    return { entry, status: 'miss' };
   }
 
   /** Reads the store directly (no coalescing). */

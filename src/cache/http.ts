@@ -11,6 +11,13 @@ export const GET_CACHE_CONTROL = 'public, max-age=86400';
 /** Cache-Control of a POST result: stored only with revalidation (the ETag still lets clients send If-None-Match). */
 export const POST_CACHE_CONTROL = 'no-cache';
 
+/**
+ * Response header telling how a 200 compute response was found: `hit` (from the result cache: this
+ * process's memory or the shared Redis), `miss` (computed for this request), `coalesced` (shared with an
+ * identical request in flight). Absent on 304 and on errors.
+ */
+export const CACHE_STATUS_HEADER = 'x-cache';
+
 /** Content type of every cached compute response. */
 export const JSON_CONTENT_TYPE = 'application/json; charset=utf-8';
 

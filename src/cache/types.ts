@@ -14,7 +14,11 @@ export interface CacheEntry {
   etag: string;
 }
 
-/** Counters and sizes of a cache, for metrics. */
+/**
+ * Counters and sizes of a cache, for metrics. A shared store (Redis) counts this process's hits,
+ * misses and errors; the entries it holds are shared and evicted by the server, so entries, bytes,
+ * maxBytes and evictions are 0 for it (see redis.ts).
+ */
 export interface CacheStats {
   /** Lookups answered from the store. */
   hits: number;
@@ -28,8 +32,10 @@ export interface CacheStats {
   entries: number;
   /** Bytes held now, as the store counts them (see memory.ts). */
   bytes: number;
-  /** The bound on bytes; 0 when the store keeps nothing. */
+  /** The bound on bytes; 0 when the store keeps nothing (or the bound is the shared store's own). */
   maxBytes: number;
+  /** Store operations that failed (each failed read became a computation); absent for local stores. */
+  errors?: number;
 }
 
 /** Whether a store can serve now, for the readiness probe and metrics. */

@@ -98,3 +98,19 @@ describe('CoalescingCache', () => {
     await expect(cache.resolve('k', () => entry('{"y":3}'))).resolves.toMatchObject({ body: '{"y":3}' });
   });
 });
+
+describe('CoalescingCache.resolveWithStatus (the x-cache header)', () => {
+  it('tells a miss (computed), the requests that joined it (coalesced), and a later hit', async () => {
+    const store = new SlowStore();
+    const cache = new CoalescingCache(store);
+    const first = cache.resolveWithStatus('k', () => entry('{"x":1}'));
+    const joined = cache.resolveWithStatus('k', () => entry('{"x":2}'));
+    store.release();
+    expect((await first).status).toBe('miss');
+    const j = await joined;
+    expect(j.status).toBe('coalesced');
+    expect(j.entry.body).toBe('{"x":1}');
+    const later = await cache.resolveWithStatus('k', () => entry('{"x":3}'));
+    expect(later).toEqual({ entry: entry('{"x":1}'), status: 'hit' });
+  });
+});
