@@ -43,9 +43,13 @@
 import { tanhSinhVector } from './quadrature.js';
 import type { KerrNewman } from './spacetime.js';
 
-/** δ² = 1 − a² − Q²: positive with two horizons, zero when extremal, negative without a horizon. */
+/**
+ * δ² = 1 − a² − Q²: positive with two horizons, zero when extremal, negative without a horizon.
+ * Written as 1 − (a² + Q²), the same rounding as hasHorizon in spacetime.ts, so that every body the
+ * rest of the service treats as a black hole has δ² ≥ 0 here.
+ */
 function deltaSquared(s: KerrNewman): number {
-  return 1 - s.a * s.a - s.q * s.q;
+  return 1 - (s.a * s.a + s.q * s.q);
 }
 
 /**

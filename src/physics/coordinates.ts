@@ -128,11 +128,14 @@ export function hubToCartesian(s: KerrNewman, h: Vec4): Vec4 {
 /**
  * The Kerr–Schild radius r ≥ 0 of a Cartesian point: the non-negative root of
  * r⁴ − (R² − a²) r² − a² z² = 0, R² = x² + y² + z², as r² = (w + √(w² + 4a²z²))/2 for w = R² − a² ≥ 0
- * and r² = 2a²z²/(√(w² + 4a²z²) − w) otherwise (no cancellation in either).
+ * and r² = 2a²z²/(√(w² + 4a²z²) − w) otherwise (no cancellation in either). a ≥ 0.
  */
 export function kerrSchildRadius(a: number, x: number, y: number, z: number): number {
   if (a === 0) return Math.hypot(x, y, z);
-  const w = x * x + y * y + z * z - a * a;
+  // w = R² − a² as (ρ − a)(ρ + a) + z² with ρ = |x + i y|: next to the ring (ρ ≈ a, z ≈ 0) the
+  // difference ρ − a is exact (Sterbenz) rather than a cancellation of squares.
+  const planar = Math.hypot(x, y);
+  const w = (planar - a) * (planar + a) + z * z;
   const disc = Math.hypot(w, 2 * a * z);
   const r2 = w >= 0 ? (w + disc) / 2 : (2 * a * a * z * z) / (disc - w);
   return Math.sqrt(r2);
