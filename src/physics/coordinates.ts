@@ -30,7 +30,7 @@ import {
   riverShift,
   riverShiftRates,
 } from './coordinate-integrals.js';
-import { boyerLindquistMetric, pointFunctions, riverMetric, type KerrNewman } from './spacetime.js';
+import { boyerLindquistMetric, horizons, pointFunctions, riverMetric, type KerrNewman } from './spacetime.js';
 
 export type CoordinateSystem = 'boyerLindquist' | 'river' | 'kerrSchild';
 export const COORDINATE_SYSTEMS: readonly CoordinateSystem[] = ['boyerLindquist', 'river', 'kerrSchild'];
@@ -76,11 +76,21 @@ export function isSingular(s: KerrNewman, r: number, theta: number): boolean {
 
 // ---- charts to and from the hub (t̄, r, θ, φ̄) ----------------------------------------------------
 
+/**
+ * Whether r is a horizon: Δ(r) = 0 in the closed form, or r equal to a horizon radius as horizons()
+ * rounds it (the classification region() uses), so that the service calls one point a horizon everywhere.
+ */
+export function onHorizon(s: KerrNewman, r: number): boolean {
+  const h = horizons(s);
+  return h !== null && (r === h.outer || r === h.inner || deltaFunction(s, r) === 0);
+}
+
 /** Boyer–Lindquist → hub: t̄ = t + (t̄ − t)(r), φ̄ = φ + (φ̄ − φ)(r). Refused on a horizon. */
 export function blToHub(s: KerrNewman, e: Vec4): Outcome<Vec4> {
   const [t, r, theta, phi] = e;
   if (r < 0) return refuse('negativeRadius');
   if (isSingular(s, r, theta)) return refuse('singularity');
+  if (onHorizon(s, r)) return refuse('onHorizon');
   const dt = kerrSchildTimeShift(s, r);
   const dphi = kerrSchildAzimuthShift(s, r);
   if (!Number.isFinite(dt) || !Number.isFinite(dphi)) return refuse('onHorizon');
@@ -90,6 +100,7 @@ export function blToHub(s: KerrNewman, e: Vec4): Outcome<Vec4> {
 /** Hub → Boyer–Lindquist. Refused on a horizon. */
 export function hubToBl(s: KerrNewman, h: Vec4): Outcome<Vec4> {
   const [tb, r, theta, phib] = h;
+  if (onHorizon(s, r)) return refuse('onHorizon');
   const dt = kerrSchildTimeShift(s, r);
   const dphi = kerrSchildAzimuthShift(s, r);
   if (!Number.isFinite(dt) || !Number.isFinite(dphi)) return refuse('onHorizon');
@@ -222,7 +233,8 @@ export function jacobianToHub(system: CoordinateSystem, s: KerrNewman, h: Vec4):
     const sigma = r * r + a * a * cs * cs;
     const xr = r * cp - a * sp;
     const yr = r * sp + a * cp;
-    const axis = sn === 0 || sigma === 0 ? Number.NaN : 1;
+    // θ = π rounds to sinθ ≈ 1.2e-16, not 0: the axis is θ ∈ {0, π} exactly (as cartesianToHub gives it).
+    const axis = sn === 0 || theta === 0 || theta === Math.PI || sigma === 0 ? Number.NaN : 1;
     m[1] = [0, (r * xr * sn) / sigma, (r * yr * sn) / sigma, ((r * r + a * a) * cs) / sigma];
     m[2] = [0, (xr * cs) / sigma, (yr * cs) / sigma, (-r * sn) / sigma];
     m[3] = [
