@@ -8,16 +8,12 @@ import { ProblemError, unphysical } from '../errors.js';
 import {
   COORDINATE_SYSTEMS,
   fromHub,
-  jacobians,
-  metricAt,
   toHub,
-  transformCovector,
-  transformVector,
   TRANSFORM_REASONS,
   type CoordinateSystem,
-  type Mat4,
   type Vec4,
 } from '../physics/coordinates.js';
+import { jacobians, metricAt, transformCovector, transformVector, type Mat4 } from '../physics/coordinate-jacobians.js';
 import { region as regionOf } from '../physics/spacetime.js';
 import { bodyInput, normalizeBody, quantityInput, readAngle, readLength, readQuantity, readSignedLength, LIMITS, type Body } from './inputs.js';
 import { bodyEcho, bodyEchoSchema, bodyNotes, pointEchoSchema, service, serviceStamp } from './responses.js';

@@ -11,11 +11,10 @@ import {
   blToHub,
   blToKerrSchild,
   blToRiver,
-  jacobians,
   kerrSchildRadius,
-  metricAt,
   type Vec4,
 } from '../../src/physics/coordinates.js';
+import { jacobians, metricAt } from '../../src/physics/coordinate-jacobians.js';
 
 interface Event {
   a: number;

@@ -12,20 +12,16 @@ import {
   cartesianToHub,
   fromHub,
   hubToCartesian,
-  jacobians,
   kerrSchildRadius,
   kerrSchildToBl,
   kerrSchildToRiver,
-  metricAt,
   riverToBl,
   riverToKerrSchild,
   toHub,
-  transformCovector,
-  transformVector,
   COORDINATE_SYSTEMS,
-  type Mat4,
   type Vec4,
 } from '../../src/physics/coordinates.js';
+import { jacobians, metricAt, transformCovector, transformVector, type Mat4 } from '../../src/physics/coordinate-jacobians.js';
 import { kerrSchildTimeShift, riverShift } from '../../src/physics/coordinate-integrals.js';
 import { horizons, type KerrNewman } from '../../src/physics/spacetime.js';
 
