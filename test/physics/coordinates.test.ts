@@ -186,6 +186,29 @@ describe('the Jacobians carry the metric of spacetime.ts into the other charts',
   });
 });
 
+describe('the river chart is the chart of the observers falling from rest at infinity', () => {
+  it('their covector u_μ = (−1, −√((r² + a²)μ)/Δ, 0, 0) in Boyer–Lindquist (spacetime.ts) is −dT = (−1, 0, 0, 0) in river coordinates', () => {
+    fc.assert(
+      fc.property(hole, radius, theta, (s, r, th) => {
+        fc.pre(fromHorizon(s, r) > 1e-3 && 2 * r > s.q * s.q);
+        const hub = blToHub(s, [0, r, th, 0]);
+        if (!hub.ok) return;
+        const mu = 2 * r - s.q * s.q;
+        const delta = r * r - 2 * r + s.a * s.a + s.q * s.q;
+        const ur = -Math.sqrt((r * r + s.a * s.a) * mu) / delta;
+        const { inverse } = jacobians(s, 'boyerLindquist', 'river', hub.value);
+        const w = transformCovector(inverse!, [-1, ur, 0, 0]);
+        // u_r is cancelled by dt/dr of the same size: 1e-12 of |u_r|.
+        expect(w[0]).toBe(-1);
+        expect(Math.abs(w[1])).toBeLessThanOrEqual(1e-12 * (1 + Math.abs(ur)));
+        expect(w[2]).toBe(0);
+        expect(Math.abs(w[3])).toBeLessThanOrEqual(1e-12 * (1 + Math.abs(ur)));
+      }),
+      { numRuns: 300 },
+    );
+  });
+});
+
 describe('closed-form special cases', () => {
   const S: KerrNewman = { a: 0, q: 0 };
 
