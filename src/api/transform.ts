@@ -204,7 +204,8 @@ export function computeTransform(input: TransformRequest): TransformResponse {
       if (wantsDerivatives) {
         const { forward, inverse } = values ? jacobians(s, from, sys, h) : { forward: null, inverse: null };
         const reasons: string[] = [];
-        const why = values === null ? (result.reason as string) : TRANSFORM_REASONS.axis;
+        const onAxis = theta === 0 || theta === Math.PI;
+        const why = values === null ? (result.reason as string) : onAxis ? TRANSFORM_REASONS.axis : 'not finite in double precision here';
         const finiteOr = (m: number[][] | null, label: string) => {
           if (m !== null && finiteMatrix(m)) return m;
           if (m !== null) reasons.push(`${label}: not finite in double precision here`);
