@@ -34,11 +34,16 @@ export function sendProblem(reply: FastifyReply, body: ProblemBody): FastifyRepl
 }
 
 /** Classifies a framework error (body parsing, limits, content type) by its code and status. */
-function classify(err: FastifyError): { code: ProblemCode; detail: string } {
+function classify(err: FastifyError, request: FastifyRequest): { code: ProblemCode; detail: string } {
   const status = err.statusCode ?? 500;
   switch (err.code) {
-    case 'FST_ERR_CTP_BODY_TOO_LARGE':
-      return { code: 'request-too-large', detail: err.message };
+    case 'FST_ERR_CTP_BODY_TOO_LARGE': {
+      const limit = request.routeOptions?.bodyLimit;
+      return {
+        code: 'request-too-large',
+        detail: limit ? `the request body is larger than BODY_LIMIT_BYTES = ${limit} bytes (documented limit)` : err.message,
+      };
+    }
     case 'FST_ERR_CTP_INVALID_MEDIA_TYPE':
     case 'FST_ERR_CTP_INVALID_CONTENT_LENGTH':
       return status === 415
@@ -64,7 +69,7 @@ export function installErrorHandling(app: FastifyInstance): void {
     if (err instanceof ProblemError) {
       return sendProblem(reply, problemBody(request, err.code, err.message, err.errors));
     }
-    const { code, detail } = classify(err);
+    const { code, detail } = classify(err, request);
     if (PROBLEMS[code].status >= 500) request.log.error({ err }, 'internal error');
     else request.log.info({ code: err.code, status: PROBLEMS[code].status }, 'request refused');
     return sendProblem(reply, problemBody(request, code, detail));

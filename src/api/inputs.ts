@@ -138,6 +138,18 @@ export function readLength(
   return l;
 }
 
+/**
+ * A client coordinate length of either sign (a Cartesian x, y or z) as { si, geometric } — exact for
+ * lengths given in rg — whose magnitude is within the documented limit; 400 if unreadable, 422 beyond it.
+ */
+export function readSignedLength(input: number | string, path: string, scale: { rg: number; tg: number }): { si: number; geometric: number } {
+  const l = at(path, () => toLength(input, scale));
+  if (!(Math.abs(l.geometric) <= LIMITS.maxRadiusGeometric)) {
+    throw unphysical(path, `|value| must not exceed ${LIMITS.maxRadiusGeometric} GM/c² (documented limit)`);
+  }
+  return l;
+}
+
 /** A client angle in rad that must lie in [lo, hi]; 400 if unreadable, 422 outside the range. */
 export function readAngle(input: number | string, path: string, lo: number, hi: number, range: string): number {
   const x = read(input, 'angle', path);

@@ -105,6 +105,13 @@ const SAMPLES: Record<string, unknown> = {
   '/v1/light/deflection': { body: { mass: '1 Msun', spin: 0.5 }, ray: { closestApproach: '10 rg' }, direction: 'prograde' },
   '/v1/light/delay': { body: 'sun', from: '1 AU', to: '1.52 AU', ray: { closestApproach: '1 Rsun' } },
   '/v1/shadow': { body: { mass: '6.5e9 Msun', spin: 0.9 }, inclination: '17 deg', points: 32 },
+  '/v1/transform': {
+    body: { mass: '4e6 Msun', spin: 0.9, charge: 0.2 },
+    from: 'boyerLindquist',
+    events: [{ coordinates: ['3 tg', '10 rg', '60 deg', 0], vectors: [[1, 0, 0, 0]], covectors: [[-1, 0, 0, 0]] }, { coordinates: [0, '1.2 rg', 1, 2] }],
+    metric: true,
+    jacobian: true,
+  },
 };
 
 describe('cached bodies are the bytes of the fresh response', () => {

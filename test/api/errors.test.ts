@@ -269,7 +269,8 @@ describe('unphysical input (422)', () => {
 describe('size limits (413)', () => {
   it('a body over the limit (a 100 KB JSON string field) → 413 request-too-large', async () => {
     const payload = JSON.stringify({ body: { mass: 'x'.repeat(100_000) }, point: { r: '6 rg' } });
-    problem(await postRaw('/v1/local', payload), 'request-too-large');
+    const p = problem(await postRaw('/v1/local', payload), 'request-too-large');
+    expect(p.detail).toMatch(/BODY_LIMIT_BYTES = \d+ bytes/);
   });
 
   it('a quantity string over 64 characters inside the limit → 400 naming the field', async () => {
