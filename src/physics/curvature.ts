@@ -65,7 +65,7 @@ export const SMALLEST_NORMAL = 2.2250738585072014e-308;
  * Kretschmann scalar K = R_abcd R^abcd = 48 Re(Ψ2²) + 8 Q⁴/Σ⁴ (module comment), units 1/M⁴, at
  * Boyer–Lindquist (r, cos θ). It takes both signs in Kerr (negative near the axis at small r). NaN
  * where its size (48|Ψ2|² + 8Q⁴/Σ⁴) lies below the normal range of doubles (r ≳ 1e51 M: the value
- * would be subnormal or zero) — see `curvatureUnderflows`; not finite at the singularity.
+ * would be subnormal or zero); +Infinity where it overflows (at and next to the singularity).
  */
 export function kretschmannScalar(a: number, q: number, r: number, cosTheta: number): number {
   const p = weylPsi2(a, q, r, cosTheta);
@@ -74,13 +74,14 @@ export function kretschmannScalar(a: number, q: number, r: number, cosTheta: num
   const phi = q * q * inv * inv; // Q²/Σ² = 2Φ11
   const size = 48 * (p.re * p.re + p.im * p.im) + 8 * phi * phi;
   if (size < SMALLEST_NORMAL) return Number.NaN;
+  if (!(size < Number.POSITIVE_INFINITY)) return Number.POSITIVE_INFINITY;
   return 48 * (p.re * p.re - p.im * p.im) + 8 * phi * phi;
 }
 
 /**
  * R_ab R^ab = 4 Q⁴/Σ⁴ (units 1/M⁴): the square of the Ricci tensor sourced by the Maxwell field (the
  * Ricci scalar itself is 0). Exactly 0 without charge; NaN where a nonzero value lies below the
- * normal range of doubles; not finite at the singularity.
+ * normal range of doubles; +Infinity where it overflows (at and next to the singularity).
  */
 export function ricciSquared(a: number, q: number, r: number, cosTheta: number): number {
   if (q === 0) return 0;
