@@ -8,6 +8,7 @@ import { circularRoute, precessionRoute } from './orbits.js';
 import { properTimeRoute } from './proper-time.js';
 import type { ComputeRoute } from './route.js';
 import { spacetimeRoute } from './spacetime.js';
+import { tidalRoute } from './tidal.js';
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute, clocksRoute, properTimeRoute, circularRoute, precessionRoute, deflectionRoute, delayRoute, shadowRoute];
+export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute, clocksRoute, properTimeRoute, circularRoute, precessionRoute, deflectionRoute, delayRoute, shadowRoute, tidalRoute];

@@ -105,6 +105,7 @@ const SAMPLES: Record<string, unknown> = {
   '/v1/light/deflection': { body: { mass: '1 Msun', spin: 0.5 }, ray: { closestApproach: '10 rg' }, direction: 'prograde' },
   '/v1/light/delay': { body: 'sun', from: '1 AU', to: '1.52 AU', ray: { closestApproach: '1 Rsun' } },
   '/v1/shadow': { body: { mass: '6.5e9 Msun', spin: 0.9 }, inclination: '17 deg', points: 32 },
+  '/v1/tidal': { body: { mass: '4e6 Msun', spin: 0.9, charge: 0.1 }, point: { r: '3 rg', theta: '60 deg' }, length: '2 m', star: 'sun' },
 };
 
 describe('cached bodies are the bytes of the fresh response', () => {
