@@ -3,15 +3,16 @@
  *
  * Geometric units G = c = M = 1; curvature components in 1/M², the quadratic invariants in 1/M⁴.
  * Signature (−,+,+,+); Riemann convention R^a_bcd = ∂_c Γ^a_db − ∂_d Γ^a_cb + Γ^a_ce Γ^e_db − Γ^a_de Γ^e_cb
- * (Misner, Thorne & Wheeler 1973, eq. 11.12), so that relative acceleration is δa^i = −R^i_0j0 ξ^j.
+ * (that of Misner, Thorne & Wheeler 1973, ch. 11), so that relative acceleration is δa^i = −R^i_0j0 ξ^j.
  *
  * Method. Kerr–Newman is of Petrov type D (Kinnersley 1969, J. Math. Phys. 10, 1195). In Carter's
- * orthonormal frame (Carter 1968, Phys. Rev. 174, 1559; the frame of MTW 1973 eq. 33.5 with charge)
+ * orthonormal frame (Carter 1968, Phys. Rev. 174, 1559; MTW 1973 §33.2, here with charge)
  *   e0 = (r² + a²)/√(ΣΔ) (∂t + a/(r² + a²) ∂φ),  e1 = √(Δ/Σ) ∂r,  e2 = ∂θ/√Σ,
  *   e3 = (∂φ + a sin²θ ∂t)/(√Σ sinθ),
  * e0 ∧ e1 holds both principal null directions, and the only Weyl scalar is
  *   Ψ2 = −M/r̄³ + Q²/(r̄³ r̄*),   r̄ = r − i a cosθ
- * (Newman–Penrose form; e.g. Chandrasekhar 1983, The Mathematical Theory of Black Holes, §111). The
+ * (Newman–Penrose form, as in Chandrasekhar 1983, The Mathematical Theory of Black Holes, ch. 11 —
+ * from memory; signs verified here against the sympy fixture). The
  * electric and magnetic parts of the Weyl tensor seen by e0 are then diagonal,
  *   E = Re Ψ2 · diag(2, −1, −1),   B = −Im Ψ2 · diag(2, −1, −1)   (axes e1, e2, e3),
  * and the Maxwell field is radial with |E + iB| = |Q|/Σ, so the Ricci tensor (R_ab = 8π T_ab, trace
@@ -23,10 +24,11 @@
  * convention below; it is checked against a Riemann tensor built
  * from the metric by sympy (test/fixtures/python/curvature.py), off-diagonal tidal components included.
  *
- * Invariants (C·C = 8(E·E − B·B) = 48 Re Ψ2²; Stephani et al. 2003, Exact Solutions, §4.2):
+ * Invariants (C·C = 8(E·E − B·B) = 48 Re Ψ2²; Stephani et al. 2003, Exact Solutions of Einstein's Field
+ * Equations, ch. 4 — from memory):
  *   Kretschmann  K = R_abcd R^abcd = 48 Re(Ψ2²) + 8 Q⁴/Σ⁴,     Ricci square R_ab R^ab = 4 Q⁴/Σ⁴,
  * and the Ricci scalar R vanishes identically (a Maxwell field is traceless). For Schwarzschild
- * K = 48 M²/r⁶; the Kerr–Newman polynomial form is Henry (2000, ApJ 535, 350, eq. 2); the tests
+ * K = 48 M²/r⁶; the Kerr–Newman polynomial form is Henry (2000, ApJ 535, 350 — from memory); the tests
  * hold this form against both and against the sympy fixture.
  */
 
@@ -118,7 +120,7 @@ function eps(i: number, j: number, k: number): number {
 /**
  * The Riemann tensor R_abcd (all indices down) in the principal frame (T, X, e2, e3) at a point, from
  * Ψ2 and Q²/Σ² (module comment), units 1/M². The Weyl part from its electric and magnetic parts with
- * respect to T (Stephani et al. 2003, §3.5):
+ * respect to T (the standard decomposition, e.g. Stephani et al. 2003, ch. 3 — from memory):
  *   C_0i0j = E_ij,  C_0ijk = ε_jkl B_li,  C_ijkl = −ε_ijm ε_kln E_mn,
  * plus R_abcd ⊃ ½(η_ac R_bd − η_ad R_bc − η_bc R_ad + η_bd R_ac) for the trace-free Ricci part.
  */

@@ -26,11 +26,16 @@
  *   e_r = (−a² sin²θ √μ/√Σ, √((r²+a²)Σ), 0, a sinθ √(μ(r²+a²)/Σ))/√A.
  *   Outside the horizon it is the ZAMO's frame boosted inward along e_r by the flow speed.
  *
+ * Method: each of these observers is a boost along e3 of a frame in the principal plane, followed
+ * (river) by a rotation of its radial and azimuthal axes; E then follows in closed form from Ψ2 and
+ * Φ11 (tidalTensorClosedForm), keeping full precision even where the boost is extreme (next to the
+ * ring singularity). The explicit tetrads and the contraction of the frame Riemann tensor
+ * (tidalTensor) are the independent route the tests compare it with, and serve other observers.
  * The principal directions come from the Jacobi eigen-solver of mathjs (eigs) on E scaled to unit
  * size; the tests hold E v = λ v and the orthonormality of the directions to 1e−12.
  */
 import { eigs } from 'mathjs';
-import { contract, riemannAt, type Tensor4 } from './curvature.js';
+import { contract, weylPsi2, type Complex, type Tensor4 } from './curvature.js';
 import { horizons, type KerrNewman } from './spacetime.js';
 
 export type TidalObserverKind = 'static' | 'zamo' | 'river';
@@ -47,19 +52,124 @@ export type TetradAbsence = 'insideHorizon' | 'onHorizon' | 'ergoregion' | 'noZa
 
 export type TetradResult = { exists: true; tetrad: Tetrad } | { exists: false; reason: TetradAbsence };
 
-/** Tetrad of the observer `kind` at Boyer–Lindquist (r, θ) (see the module comment). */
-export function observerTetrad(s: KerrNewman, kind: TidalObserverKind, r: number, theta: number): TetradResult {
+/** The point functions the frames need (Σ, Δ, A, μ, r² + a², sin θ). */
+interface FrameGeometry {
+  sn: number;
+  rho2: number;
+  sigma: number;
+  mu: number;
+  delta: number;
+  bigA: number;
+}
+
+function geometry(s: KerrNewman, r: number, theta: number): FrameGeometry {
   const sn = Math.sin(theta);
   const cs = Math.cos(theta);
-  const a = s.a;
-  const rho2 = r * r + a * a;
-  const sigma = r * r + a * a * cs * cs;
+  const a2 = s.a * s.a;
+  const rho2 = r * r + a2;
+  const sigma = r * r + a2 * cs * cs;
   const mu = 2 * r - s.q * s.q;
-  const delta = rho2 - mu;
-  const bigA = rho2 * rho2 - a * a * delta * sn * sn;
+  // A = (r² + a²)² − a²Δ sin²θ written as (r² + a²)Σ + a²μ sin²θ: a sum of non-negative terms
+  // wherever μ ≥ 0, so no cancellation next to the ring (there the first form loses every digit).
+  return { sn, rho2, sigma, mu, delta: rho2 - mu, bigA: rho2 * sigma + a2 * mu * sn * sn };
+}
+
+/** Why the observer `kind` cannot exist here, or null if it can. */
+function absence(s: KerrNewman, kind: TidalObserverKind, r: number, g: FrameGeometry): TetradAbsence | null {
+  if (kind === 'river') return g.mu < 0 ? 'noFlow' : null;
+  const h = horizons(s);
+  if (h && r < h.outer) return 'insideHorizon';
+  if (h && r === h.outer) return 'onHorizon';
+  if (kind === 'static') return g.sigma - g.mu > 0 ? null : 'ergoregion';
+  return g.delta > 0 && g.bigA > 0 ? null : 'noZamo';
+}
+
+/**
+ * The observer relative to the principal frame: a boost along e3 with velocity β (given as γ², γ²β²
+ * and γ²β, each formed directly so that none is a difference of large numbers), then a rotation by α
+ * in the plane of X and the boosted e3 that carries (X, e3') to the observer's (radial, azimuthal)
+ * axes; α = 0 for the static observer and the ZAMO. For the river observer cos α = √((r²+a²)Σ/A),
+ * sin α = a sinθ √μ/√A (the components of e_r along X and e3').
+ */
+export interface FrameBoost {
+  g2: number;
+  g2b2: number;
+  g2b: number;
+  cos: number;
+  sin: number;
+}
+
+/** The boost and rotation of observer `kind` at (r, θ) (module comment), or why it does not exist. */
+export function observerBoost(
+  s: KerrNewman,
+  kind: TidalObserverKind,
+  r: number,
+  theta: number,
+): { exists: true; boost: FrameBoost } | { exists: false; reason: TetradAbsence } {
+  const g = geometry(s, r, theta);
+  const reason = absence(s, kind, r, g);
+  if (reason) return { exists: false, reason };
+  const as = s.a * g.sn;
+  if (kind === 'static') {
+    const sm = g.sigma - g.mu;
+    return { exists: true, boost: { g2: g.delta / sm, g2b2: (as * as) / sm, g2b: (-as * Math.sqrt(g.delta)) / sm, cos: 1, sin: 0 } };
+  }
+  if (kind === 'zamo') {
+    const A = g.bigA;
+    return {
+      exists: true,
+      boost: { g2: (g.rho2 * g.rho2) / A, g2b2: (as * as * g.delta) / A, g2b: (-g.rho2 * as * Math.sqrt(g.delta)) / A, cos: 1, sin: 0 },
+    };
+  }
+  const sA = Math.sqrt(g.bigA);
+  return {
+    exists: true,
+    boost: {
+      g2: g.rho2 / g.sigma,
+      g2b2: (as * as) / g.sigma,
+      g2b: (-Math.sqrt(g.rho2) * as) / g.sigma,
+      cos: Math.sqrt(g.rho2 * g.sigma) / sA,
+      sin: (as * Math.sqrt(g.mu)) / sA,
+    },
+  };
+}
+
+/**
+ * The tidal tensor over (radial, polar, azimuthal) in closed form. With E − iB = Ψ2 diag(2, −1, −1)
+ * in the principal frame, a boost along e3 acts on E − iB as a rotation about e3 by an imaginary
+ * angle (cos → γ, sin → iγβ), so the boosted observer sees, over (X, e2, e3'),
+ *   E'11 = (2γ² + γ²β²) Re Ψ2 + γ²Φ,  E'22 = −(γ² + 2γ²β²) Re Ψ2 + γ²β²Φ,  E'33 = −Re Ψ2,
+ *   E'12 = 3γ²β Im Ψ2,  E'13 = E'23 = 0,
+ * where Φ = Q²/Σ² and the Φ terms are the Maxwell part ½(δ_ij R_uu − R_ij). The rotation by α then
+ * gives E = R_α E' R_αᵀ in the (radial, azimuthal) plane. Every term is a product (no differences of
+ * boosted quantities), so the result keeps its precision however large γ is (next to the ring, or the
+ * static observer near the ergosurface); the tests hold it against the direct contraction of the
+ * frame Riemann tensor and against the sympy fixture.
+ */
+export function tidalTensorClosedForm(psi2: Complex, phi: number, b: FrameBoost): number[][] {
+  const e11 = (2 * b.g2 + b.g2b2) * psi2.re + b.g2 * phi;
+  const e22 = -(b.g2 + 2 * b.g2b2) * psi2.re + b.g2b2 * phi;
+  const e33 = -psi2.re;
+  const e12 = 3 * b.g2b * psi2.im;
+  const c = b.cos;
+  const s = b.sin;
+  const rp = c * s * (e33 - e11);
+  return [
+    [c * c * e11 + s * s * e33, c * e12, rp],
+    [c * e12, e22, -s * e12],
+    [rp, -s * e12, s * s * e11 + c * c * e33],
+  ];
+}
+
+/** Tetrad of the observer `kind` at Boyer–Lindquist (r, θ) (see the module comment). */
+export function observerTetrad(s: KerrNewman, kind: TidalObserverKind, r: number, theta: number): TetradResult {
+  const g = geometry(s, r, theta);
+  const reason = absence(s, kind, r, g);
+  if (reason) return { exists: false, reason };
+  const { sn, rho2, sigma, mu, delta, bigA } = g;
+  const a = s.a;
   const polar = [0, 0, 1, 0];
   if (kind === 'river') {
-    if (mu < 0) return { exists: false, reason: 'noFlow' };
     const sA = Math.sqrt(bigA);
     const sSig = Math.sqrt(sigma);
     const sMu = Math.sqrt(mu);
@@ -74,18 +184,13 @@ export function observerTetrad(s: KerrNewman, kind: TidalObserverKind, r: number
       },
     };
   }
-  const h = horizons(s);
-  if (h && r < h.outer) return { exists: false, reason: 'insideHorizon' };
-  if (h && r === h.outer) return { exists: false, reason: 'onHorizon' };
   let gamma: number;
   let gammaBeta: number;
   if (kind === 'static') {
     const sm = sigma - mu; // −g_tt Σ
-    if (!(sm > 0)) return { exists: false, reason: 'ergoregion' };
     gamma = Math.sqrt(delta / sm);
     gammaBeta = (-a * sn) / Math.sqrt(sm);
   } else {
-    if (!(delta > 0 && bigA > 0)) return { exists: false, reason: 'noZamo' };
     const sA = Math.sqrt(bigA);
     gamma = rho2 / sA;
     gammaBeta = (-a * sn * Math.sqrt(delta)) / sA;
@@ -152,13 +257,16 @@ export type ObserverTides =
   | { kind: TidalObserverKind; exists: true; tensor: number[][]; principal: PrincipalTide[] | null }
   | { kind: TidalObserverKind; exists: false; reason: TetradAbsence };
 
-/** Tides seen by each observer kind at Boyer–Lindquist (r, θ); the Riemann tensor is built once. */
+/** Tides seen by each observer kind at Boyer–Lindquist (r, θ), by the closed form. */
 export function tidesAt(s: KerrNewman, r: number, theta: number, kinds: readonly TidalObserverKind[]): ObserverTides[] {
-  const riemann = riemannAt(s.a, s.q, r, theta);
+  const cs = Math.cos(theta);
+  const psi2 = weylPsi2(s.a, s.q, r, cs);
+  const sigma = r * r + s.a * s.a * cs * cs;
+  const phi = (s.q * s.q) / sigma / sigma;
   return kinds.map((kind) => {
-    const t = observerTetrad(s, kind, r, theta);
-    if (!t.exists) return { kind, exists: false, reason: t.reason };
-    const tensor = tidalTensor(riemann, t.tetrad);
+    const b = observerBoost(s, kind, r, theta);
+    if (!b.exists) return { kind, exists: false, reason: b.reason };
+    const tensor = tidalTensorClosedForm(psi2, phi, b.boost);
     return { kind, exists: true, tensor, principal: principalTides(tensor) };
   });
 }

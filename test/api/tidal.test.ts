@@ -68,8 +68,11 @@ describe('POST /v1/tidal', () => {
     expect(t.observers[0]!.reason).toMatch(/2r < Q²/);
   });
 
-  it('next to the ring singularity the tensor is not finite: null with a reason, no 500', async () => {
-    const t = await tidal({ body: { mass: '10 Msun', spin: 0.5 }, point: { r: '1e-300 rg' }, observers: ['river'] });
+  it('next to the ring the tides stay finite and exact; where they overflow (r → 0 without spin) null with a reason, no 500', async () => {
+    // θ = π/2 in doubles is 6e-17 rad off the equator: 3e-17 M from the ring, tides ~ 1e82 in units of M.
+    const ring = await tidal({ body: { mass: '10 Msun', spin: 0.5 }, point: { r: '1e-300 rg' }, observers: ['river'] });
+    expect(Math.abs(ring.observers[0]!.principal![0]!.tidalEigenvalue.geometric!)).toBeGreaterThan(1e80);
+    const t = await tidal({ body: { mass: '10 Msun' }, point: { r: '1e-300 rg' }, observers: ['river'] });
     expect(t.observers[0]!.exists).toBe(true);
     expect(t.observers[0]!.tensor).toBeNull();
     expect(t.observers[0]!.reason).toMatch(/not finite/);
