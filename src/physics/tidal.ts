@@ -5,7 +5,7 @@
  * Geometric units G = c = M = 1: the tidal tensor in 1/M² (multiply by (c³/GM)² for s⁻²).
  * E_ij = R_{i0j0} = R_abcd e_i^a u^b e_j^c u^d in the observer's orthonormal frame (u, e_i), so that
  * two free particles a small distance ξ apart accelerate apart at δa_i = −E_ij ξ^j (geodesic
- * deviation; Misner, Thorne & Wheeler 1973, eq. 1.13 and §31.2). An eigenvalue λ < 0 stretches along
+ * deviation; Misner, Thorne & Wheeler 1973, §1.6 and ch. 31 — from memory). An eigenvalue λ < 0 stretches along
  * its direction, λ > 0 squeezes. In vacuum tr E = 0; with charge tr E = R_ab u^a u^b.
  *
  * Observers and their spatial triads (radial outward, polar towards increasing θ, azimuthal along
