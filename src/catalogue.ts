@@ -18,7 +18,9 @@ export type Scale =
   | 'temperature'
   | 'potential'
   | 'frequency'
-  | 'specificAngularMomentum';
+  | 'specificAngularMomentum'
+  | 'curvatureSquared'
+  | 'tidal';
 
 export interface BodyScales {
   /** GM/c², m. */
@@ -54,6 +56,8 @@ const GEOMETRIC_UNIT: Record<Scale, string | null> = {
   potential: 'c^2/sqrt(4 pi epsilon_0 G)',
   frequency: 'c^3/(GM)',
   specificAngularMomentum: 'GM/c',
+  curvatureSquared: '(GM/c^2)^-4',
+  tidal: '(c^3/(GM))^2',
 };
 
 /** Multiplies a geometric value into SI for the body. */
@@ -84,6 +88,11 @@ export function siFactor(scale: Scale, b: BodyScales): number {
       return 1 / b.tg;
     case 'specificAngularMomentum':
       return b.rg * C;
+    case 'curvatureSquared':
+      // 1/rg⁴, formed as a square of squares (no intermediate overflow for rg in the documented range).
+      return 1 / (b.rg * b.rg) / (b.rg * b.rg);
+    case 'tidal':
+      return 1 / (b.tg * b.tg);
   }
 }
 
@@ -100,6 +109,7 @@ function q(
 
 const CLOCKS = '/v1/clocks';
 const ORBITS = '/v1/orbits/circular';
+const TIDAL = '/v1/tidal';
 const PROPER_TIME = '/v1/proper-time';
 
 const LOCAL = '/v1/local';
@@ -123,6 +133,10 @@ export const CATALOGUE: readonly QuantityInfo[] = [
     'Proper acceleration a static (hovering) observer needs to stay at fixed r, θ, φ, as its own accelerometer reads it.'),
   q('frameDragRate', 'rad/s', 'angularVelocity', LOCAL,
     'Angular velocity dφ/dt of the ZAMO (frame dragging), ω = -g_tφ/g_φφ.'),
+  q('kretschmannScalar', 'm^-4', 'curvatureSquared', LOCAL,
+    'Kretschmann scalar R_abcd R^abcd, the square of the Riemann tensor: 48G²M²/(c⁴r⁶) for a non-rotating uncharged body; negative in places near a spinning hole. Null where it underflows double precision (r ≳ 1e51 GM/c²).'),
+  q('ricciSquared', 'm^-4', 'curvatureSquared', LOCAL,
+    'R_ab R^ab, the square of the Ricci tensor: 4Q⁴/Σ⁴ in geometric units, from the electromagnetic field of a charged body; 0 without charge. (The Ricci scalar R itself is 0 for a Maxwell field, so it is not listed.)'),
   q('schwarzschildRadius', 'm', 'length', SPACETIME, '2GM/c², the horizon radius of a non-rotating uncharged body of this mass.'),
   q('outerHorizon', 'm', 'length', SPACETIME, 'Boyer–Lindquist radius of the outer (event) horizon, r+ = M + sqrt(M² - a² - Q²).'),
   q('innerHorizon', 'm', 'length', SPACETIME, 'Boyer–Lindquist radius of the inner (Cauchy) horizon, r- = M - sqrt(M² - a² - Q²).'),
@@ -186,6 +200,11 @@ export const CATALOGUE: readonly QuantityInfo[] = [
   q('fractionalOffset', '1', 'none', CLOCKS, 'rate_B / rate_A - 1, computed without cancellation.', false),
   q('gainPerDay', 's', 'none', CLOCKS, 'Time clock B gains on clock A per day of A (also in µs and ns).', false),
   q('gainPerYear', 's', 'none', CLOCKS, 'Time clock B gains on clock A per Julian year of A.', false),
+  // Tides (they depend on an observer, and the disruption on a star, as well as the point).
+  q('tidalEigenvalue', 's^-2', 'tidal', TIDAL, 'Eigenvalue of the tidal tensor E_ij = R_i0j0 in an observer\'s frame (static, ZAMO, river): negative stretches, positive squeezes; 2GM/r³ stretch along the radius for a non-rotating body.', false),
+  q('differentialAcceleration', 'm/s^2', 'acceleration', TIDAL, 'Relative acceleration of the two ends of an object of given length along a principal tidal direction (positive apart).', false),
+  q('disruptionRadius', 'm', 'length', TIDAL, 'Tidal disruption radius of a star, R⋆(M/m⋆)^{1/3}: an order-of-magnitude estimate.', false),
+  q('hillsMass', 'kg', 'mass', TIDAL, 'Hole mass above which a star of given mass and radius is swallowed whole: the disruption radius equals the outer horizon (estimate).', false),
   q('properTime', 's', 'time', PROPER_TIME, 'Time elapsed on the clock of a stationary, orbiting or free-falling observer.', false),
   q('farAwayTime', 's', 'time', PROPER_TIME, 'Boyer–Lindquist time t elapsed: the time of a clock at rest far away.', false),
   q('riverTime', 's', 'time', PROPER_TIME, 'Gullstrand–Painlevé / Doran time T elapsed: the proper time of observers falling from rest at infinity.', false),

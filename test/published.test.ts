@@ -5,6 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { computeLocal } from '../src/api/local.js';
 import { computeSpacetime } from '../src/api/spacetime.js';
+import { computeTidal } from '../src/api/tidal.js';
 import { C, G, GM_SUN, HBAR, K_B } from '../src/units/constants.js';
 
 const local = (body: Parameters<typeof computeLocal>[0]['body'], point: Parameters<typeof computeLocal>[0]['point']) =>
@@ -70,5 +71,40 @@ describe('the Earth (IERS 2010 GM, WGS84 equatorial radius)', () => {
     const a = local('earth', { altitude: 0 }).staticClockOffset!.value!;
     const b = local('earth', { altitude: 1 }).staticClockOffset!.value!;
     expect(Math.abs((a - b) / ((9.798 * 1) / (C * C)) - 1)).toBeLessThan(1e-3);
+  });
+});
+
+describe('tides and curvature', () => {
+  it('Schwarzschild tides on a radial free-faller: 2GML/r³ stretch along the radius, GML/r³ squeeze across it (Misner, Thorne & Wheeler 1973, ch. 31, §31.2)', () => {
+    // A 2 m probe falling from rest at infinity, 1000 km from a 10-solar-mass hole.
+    const gm = 10 * GM_SUN;
+    const r = 1e6;
+    const L = 2;
+    const t = computeTidal({ body: { mass: '10 Msun' }, point: { r: '1000 km' }, length: '2 m', observers: ['river'] });
+    const [stretch, sq1, sq2] = t.observers[0]!.principal!;
+    expect(stretch!.effect).toBe('stretch');
+    expect(stretch!.direction.radial).toBeCloseTo(1, 14);
+    // 1e-12: the closed form through GM/c² and GM/c³ conversions (a few roundings).
+    expect(Math.abs(stretch!.differentialAcceleration.value! / ((2 * gm * L) / r ** 3) - 1)).toBeLessThan(1e-12);
+    for (const s of [sq1!, sq2!]) {
+      expect(s.effect).toBe('squeeze');
+      expect(Math.abs(s.differentialAcceleration.value! / (-(gm * L) / r ** 3) - 1)).toBeLessThan(1e-12);
+    }
+  });
+
+  it('Kretschmann scalar 48G²M²/(c⁴r⁶) for Schwarzschild (common practice)', () => {
+    const gm = GM_SUN;
+    const r = 3e4;
+    const k = local({ mass: '1 Msun' }, { r: '30 km' }).kretschmannScalar!.value!;
+    expect(Math.abs(k / ((48 * gm * gm) / (C ** 4 * r ** 6)) - 1)).toBeLessThan(1e-12);
+  });
+
+  it('Hills mass ≈ 1e8 solar masses for a Sun-like star (Hills 1975, Nature 254:295; Rees 1988, Nature 333:523 — from memory)', () => {
+    const t = computeTidal({ body: { mass: '1e6 Msun' }, point: { r: '10 rg' }, star: 'sun' });
+    // (R☉c²/(2G))^{3/2} m☉^{-1/2} = 1.14e8 M☉ with the nominal R☉ and GM☉; quoted as "≈ 1e8".
+    const hills = t.disruption!.hillsMassSolar!;
+    expect(hills).toBeGreaterThan(0.8e8);
+    expect(hills).toBeLessThan(1.5e8);
+    expect(Math.abs(hills / ((6.957e8 * C * C) / (2 * GM_SUN)) ** 1.5 - 1)).toBeLessThan(1e-12);
   });
 });

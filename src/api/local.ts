@@ -91,9 +91,9 @@ export function computeLocal(input: LocalRequest): LocalResponse {
 export const localRoute: ComputeRoute<LocalRequest, z.infer<typeof bodyPointQuery>> = {
   path: '/v1/local',
   operationId: 'local',
-  summary: 'Flow and clock quantities at a point',
+  summary: 'Flow, clock and curvature quantities at a point',
   description:
-    'Flow (river) speed, escape speed, static and ZAMO clock rates with their offsets, redshift to infinity, hover acceleration, frame-dragging rate, and the metric in Boyer–Lindquist and river form, at one point around one body. Quantities that do not exist at the point are null with a reason.',
+    'Flow (river) speed, escape speed, static and ZAMO clock rates with their offsets, redshift to infinity, hover acceleration, frame-dragging rate, the curvature invariants (Kretschmann scalar R_abcd R^abcd, and R_ab R^ab — nonzero only with charge; the Ricci scalar R is 0 for the Maxwell field and not listed), and the metric in Boyer–Lindquist and river form, at one point around one body. Quantities that do not exist at the point are null with a reason.',
   tag: 'spacetime',
   body: localRequest,
   get: { query: bodyPointQuery, toInput: bodyPointFromQuery, pathFor: queryPath },

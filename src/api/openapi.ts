@@ -189,6 +189,7 @@ export function buildOpenApiDocument(): Json {
       { name: 'clocks', description: 'Clocks and proper time: observers, clock comparisons, intervals.' },
       { name: 'orbits', description: 'Characteristic orbits, circular-orbit frequencies and weak-field precessions.' },
       { name: 'light', description: 'Light bending, signal delay and black-hole shadows.' },
+      { name: 'tides', description: 'Curvature seen by observers: tidal stretching and squeezing, tidal disruption of stars.' },
       { name: 'sweeps', description: 'Grids of quantities for plots and tables.' },
       { name: 'catalogue', description: 'What the service computes and how it reports errors.' },
     ],

@@ -8,7 +8,20 @@ import { circularRoute, precessionRoute } from './orbits.js';
 import { properTimeRoute } from './proper-time.js';
 import type { ComputeRoute } from './route.js';
 import { spacetimeRoute } from './spacetime.js';
+import { tidalRoute } from './tidal.js';
 import { transformRoute } from './transform.js';
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute, clocksRoute, properTimeRoute, circularRoute, precessionRoute, deflectionRoute, delayRoute, shadowRoute, transformRoute];
+export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [
+  spacetimeRoute,
+  localRoute,
+  clocksRoute,
+  properTimeRoute,
+  circularRoute,
+  precessionRoute,
+  deflectionRoute,
+  delayRoute,
+  shadowRoute,
+  tidalRoute,
+  transformRoute,
+];

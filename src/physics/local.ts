@@ -2,6 +2,7 @@
  * Every flow and clock quantity at one point, with the reason wherever a quantity does not exist.
  * Geometric units (M = 1); the units layer converts to SI.
  */
+import { kretschmannScalar, ricciSquared } from './curvature.js';
 import {
   boyerLindquistMetric,
   flowSpeed,
@@ -33,6 +34,8 @@ export const LOCAL_QUANTITIES = [
   'redshiftToInfinity',
   'hoverAcceleration',
   'frameDragRate',
+  'kretschmannScalar',
+  'ricciSquared',
 ] as const;
 export type LocalQuantity = (typeof LOCAL_QUANTITIES)[number];
 
@@ -59,6 +62,8 @@ export const REASONS = {
     'here g_φφ < 0 (the region of closed timelike curves deep inside a spinning, charged hole): the flow and the ZAMOs are not defined',
   escapeInside: 'at or inside the outer horizon nothing escapes to infinity',
   notFinite: 'the value is not finite in double precision at this point',
+  underflow:
+    'the value is positive but below the range of double precision here (far from the body curvature invariants fall off as 1/r⁶ or faster)',
 } as const;
 
 const INSIDE: ReadonlySet<Region> = new Set(['betweenHorizons', 'innerHorizon', 'insideInnerHorizon', 'singularity']);
@@ -88,7 +93,11 @@ export function evaluateLocal(
     redshiftToInfinity: redshiftToInfinity(p),
     hoverAcceleration: hover.magnitude,
     frameDragRate: frameDragRate(s, p),
+    kretschmannScalar: kretschmannScalar(s.a, s.q, r, Math.cos(theta)),
+    ricciSquared: ricciSquared(s.a, s.q, r, Math.cos(theta)),
   };
+  // NaN: the invariant underflows (a non-finite value gets the notFinite reason below).
+  for (const n of ['kretschmannScalar', 'ricciSquared'] as const) if (Number.isNaN(values[n])) reasons[n] = REASONS.underflow;
   if (Number.isNaN(values.flowSpeed)) reasons.flowSpeed = flowReason(p);
 
   const inside = INSIDE.has(region);

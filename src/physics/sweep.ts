@@ -15,6 +15,7 @@
  * inline form is used because pointFunctions returns an object per point; sin θ, cos θ and the
  * horizons are recomputed only when θ or (a, Q) change from the previous point.
  */
+import { kretschmannScalar, ricciSquared } from './curvature.js';
 import { REASONS, type LocalQuantity } from './local.js';
 
 /** One value for every point, or one per point. */
@@ -66,6 +67,7 @@ const FIXED_REASONS = [
   DOMAIN_REASONS.thetaOutOfRange,
   DOMAIN_REASONS.radiusInsideHorizon,
   DOMAIN_REASONS.radiusInsideErgosurface,
+  REASONS.underflow,
 ] as const;
 
 /** Reason codes of the fixed reasons (index into ReasonTable.texts). */
@@ -84,6 +86,7 @@ export const REASON = {
   thetaOutOfRange: 11,
   radiusInsideHorizon: 12,
   radiusInsideErgosurface: 13,
+  underflow: 14,
 } as const;
 
 /** Largest number of reasons a table holds (codes are bytes). */
@@ -183,6 +186,8 @@ const LOCAL_ID: Record<LocalQuantity, number> = {
   redshiftToInfinity: 6,
   hoverAcceleration: 7,
   frameDragRate: 8,
+  kretschmannScalar: 9,
+  ricciSquared: 10,
 };
 
 // Region codes (as region() in spacetime.ts names them).
@@ -207,7 +212,7 @@ export function sweepLocal(
   codes: Uint8Array,
 ): void {
   const id = LOCAL_ID[quantity];
-  const needsRegion = id !== 0;
+  const needsRegion = id !== 0 && id < 9;
   const [aA, aS] = unpack(grid.a);
   const [qA, qS] = unpack(grid.q);
   const [rA, rS] = unpack(grid.r);
@@ -325,6 +330,13 @@ export function sweepLocal(
         const v2 = !(bigA > 0) ? Number.NaN : (rho2 * mu) / bigA;
         if (v2 < 1) v = id === 4 ? Math.sqrt(1 - v2) : v2 / (1 + Math.sqrt(1 - v2));
         if (v !== v) code = flowReason;
+        break;
+      }
+      case 9: // kretschmannScalar
+      case 10: {
+        // ricciSquared: the functions of physics/local.ts, same arguments (NaN: underflow).
+        v = id === 9 ? kretschmannScalar(a, q, r, cs) : ricciSquared(a, q, r, cs);
+        if (v !== v) code = REASON.underflow;
         break;
       }
       default: {

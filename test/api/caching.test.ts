@@ -112,6 +112,7 @@ const SAMPLES: Record<string, unknown> = {
     metric: true,
     jacobian: true,
   },
+  '/v1/tidal': { body: { mass: '4e6 Msun', spin: 0.9, charge: 0.1 }, point: { r: '3 rg', theta: '60 deg' }, length: '2 m', star: 'sun' },
 };
 
 describe('cached bodies are the bytes of the fresh response', () => {

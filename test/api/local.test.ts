@@ -310,3 +310,30 @@ describe('response headers', () => {
     expect(String(res.headers['x-request-id'])).toMatch(/^[A-Za-z0-9._:-]{1,64}$/);
   });
 });
+
+describe('curvature invariants', () => {
+  it('kretschmannScalar in m⁻⁴ (48 rg²/r⁶ for Schwarzschild) and ricciSquared 0 without charge', async () => {
+    const q = ok(await get('mass=10%20Msun&r=10%20rg')).quantities;
+    const rg = (10 * GM_SUN) / (C * C);
+    expect(q.kretschmannScalar!.unit).toBe('m^-4');
+    // 1e-12: 48/r⁶ in units of M, then one division by rg⁴.
+    expectRel(q.kretschmannScalar!.value, (48 * rg ** 2) / (10 * rg) ** 6, 1e-12);
+    expectRel(q.kretschmannScalar!.geometric, 48 / 1e6, 1e-14);
+    expect(q.ricciSquared!.value).toBe(0);
+  });
+
+  it('with charge ricciSquared = 4Q⁴/Σ⁴ (geometric) and both are defined inside the horizons', async () => {
+    const q = ok(await get('mass=10%20Msun&spin=0.6&charge=0.5&r=0.9%20rg&theta=1')).quantities;
+    const sigma = 0.81 + 0.36 * Math.cos(1) ** 2;
+    expectRel(q.ricciSquared!.geometric, (4 * 0.5 ** 4) / sigma ** 4, 1e-13);
+    expect(Number.isFinite(q.kretschmannScalar!.value)).toBe(true);
+  });
+
+  it('far away, where they underflow double precision, they are null with the reason', async () => {
+    const q = ok(await get('mass=1%20Msun&charge=0.5&r=1e58%20rg')).quantities;
+    for (const n of ['kretschmannScalar', 'ricciSquared'] as const) {
+      expect(q[n]!.value).toBeNull();
+      expect(q[n]!.reason).toMatch(/below the range of double precision/);
+    }
+  });
+});

@@ -181,6 +181,7 @@ describe('GET /v1/quantities', () => {
     const deflection = await light('/v1/light/deflection', { body: 'sun', ray: { closestApproach: '1 Rsun' } });
     const delay = await light('/v1/light/delay', { body: 'sun', from: '1 AU', to: '1.5 AU', ray: { closestApproach: '1 Rsun' } });
     const shadow = await light('/v1/shadow', { body: { mass: '1 Msun' }, inclination: '17 deg', distance: '1 kpc', points: 8 });
+    const tidal = await light('/v1/tidal', { body: { mass: '1e6 Msun' }, point: { r: '10 rg' }, star: 'sun' });
     /** Every key that occurs anywhere in a document. */
     const keys = (doc: unknown, out = new Set<string>()): Set<string> => {
       if (doc && typeof doc === 'object') for (const [k, v] of Object.entries(doc)) (out.add(k), keys(v, out));
@@ -195,6 +196,7 @@ describe('GET /v1/quantities', () => {
       '/v1/light/deflection': keys(deflection),
       '/v1/light/delay': keys(delay),
       '/v1/shadow': keys(shadow),
+      '/v1/tidal': keys(tidal),
     };
     for (const e of catalogue) {
       expect(byEndpoint[e.endpoint], `${e.name}: unknown endpoint ${e.endpoint}`).toBeDefined();
