@@ -1,0 +1,499 @@
+/**
+ * Timelike and null geodesics of Kerr–Newman, followed through the horizons: the initial state (from an
+ * observer's launch or from the constants of motion), the integration by DOP853 (./dop853.ts) of the
+ * Hamiltonian equations in ingoing Kerr coordinates (./geodesic-equations.ts), events located on the
+ * dense output, and samples evenly spaced in proper time (affine parameter for light).
+ *
+ * Geometric units G = c = M = 1. Clocks are counted from the launch: λ (proper time, or the affine
+ * parameter of light scaled as in ./tetrads.ts), v (ingoing Kerr time), T (river / Doran time: the proper
+ * time of the free-fallers from rest at infinity, smooth through both horizons) and t (Boyer–Lindquist
+ * time: finite only while the path stays outside the outer horizon, t = v − r*(r) + const).
+ *
+ * Events (located by Illinois regula falsi on the 7th-order dense output, to a few ulps in λ):
+ * - outerHorizon / innerHorizon: r crosses r₊ / r₋ (inward: ingoing coordinates cover the black hole,
+ *   not the white hole); the proper and river times there are reported. The path stops at the inner
+ *   horizon by default (beyond it the continuation is not unique physically), or at the outer one on request.
+ * - singularity: Σ = r² + a² cos²θ falls to SINGULARITY_SIGMA (the tidal field diverges as Σ → 0);
+ * - surface: r reaches the radius of a body with a surface;
+ * - escape: r reaches the escape radius moving outward;
+ * - radialTurningPoint / polarTurningPoint: dr/dλ or dθ/dλ changes sign (peri-/apoapsis, latitude extremes).
+ * The integration also ends at the maximum length, the maximum number of steps, or when the step size
+ * falls below its floor (tolerance not met): each with its status; the path up to there stands.
+ */
+import { Dop853 } from './dop853.js';
+import {
+  carterConstant,
+  geodesicRhs,
+  kerrSchildCartesian,
+  PHI,
+  PR,
+  PTH,
+  R,
+  radialVelocity,
+  RIVER,
+  STATE_SIZE,
+  TH,
+  tortoise,
+  twiceHamiltonian,
+  V,
+  type MotionConstants,
+} from './geodesic-equations.js';
+import { horizons, type KerrNewman } from './spacetime.js';
+import { launchMomentum, observerTetrad, TETRAD_REASONS, type LaunchObserver, type TetradAbsenceReason } from './tetrads.js';
+
+export type ParticleKind = 'timelike' | 'null';
+
+export type GeodesicStart =
+  | {
+      kind: 'observer';
+      observer: LaunchObserver;
+      r: number;
+      theta: number;
+      phi: number;
+      /** Speed measured by the observer, units of c, in [0, 1); ignored for light. */
+      speed: number;
+      /** Angle from the outward radial direction, rad. */
+      psi: number;
+      /** Angle around the radial direction from e_φ̂ towards the north, rad. */
+      chi: number;
+    }
+  | {
+      kind: 'constants';
+      r: number;
+      theta: number;
+      phi: number;
+      E: number;
+      L: number;
+      /** Carter constant K. */
+      carter: number;
+      radialSign: 1 | -1;
+      polarSign: 1 | -1;
+    };
+
+export interface GeodesicRequest {
+  particle: ParticleKind;
+  start: GeodesicStart;
+  /** Largest λ (proper time or affine parameter), > 0. */
+  maxLength: number;
+  /** Number of evenly spaced samples over [0, maxLength] (≥ 2); the end point is added when earlier. */
+  samples: number;
+  /** Relative tolerance of each step (absolute tolerance rtol·1e−3). Default 1e−10. */
+  rtol?: number;
+  /** Largest number of steps (accepted + rejected). Default DEFAULT_MAX_STEPS. */
+  maxSteps?: number;
+  /** Radius at which an outgoing path counts as escaped. Default max(1000, 10 r₀). */
+  escapeRadius?: number;
+  /** Where to stop inside the hole. Default 'innerHorizon'. */
+  stopAt?: 'outerHorizon' | 'innerHorizon';
+  /** Radius of a body with a surface (the path ends there), or undefined for a black hole. */
+  surfaceRadius?: number;
+}
+
+export const DEFAULT_MAX_STEPS = 100_000;
+export const DEFAULT_RTOL = 1e-10;
+/** Σ (units of M²) at which the path is stopped as having reached the singularity. */
+export const SINGULARITY_SIGMA = 1e-4;
+/** Events kept in the list (all are counted). */
+export const MAX_EVENTS = 1000;
+
+export type EventKind = 'outerHorizon' | 'innerHorizon' | 'singularity' | 'surface' | 'escape' | 'radialTurningPoint' | 'polarTurningPoint';
+
+export type Termination = 'escape' | 'outerHorizon' | 'innerHorizon' | 'singularity' | 'surface' | 'maxLength' | 'maxSteps' | 'toleranceNotMet';
+
+export const TERMINATIONS: Record<Termination, string> = {
+  escape: 'the path reached the escape radius moving outward',
+  outerHorizon: 'the path crossed the outer horizon (stopped there on request, or because the hole is extremal)',
+  innerHorizon:
+    'the path reached the inner (Cauchy) horizon (stopped at r₋ + 1e−6 (r₊ − r₋), before the coordinates of one of its branches diverge): beyond it the continuation is not determined by the initial data',
+  singularity: `the path came within Σ = r² + a² cos²θ ≤ ${SINGULARITY_SIGMA} M² of the singularity, where curvature diverges`,
+  surface: "the path reached the body's surface",
+  maxLength: 'the path reached the requested maximum length (proper time or affine parameter)',
+  maxSteps: 'the integration used its maximum number of steps before reaching the maximum length; the path up to there is accurate',
+  toleranceNotMet:
+    'the step size fell below its floor (10 ulps of λ) without meeting the tolerance, or the state stopped being finite; the path up to there is accurate, nothing after it is returned',
+};
+
+export interface GeodesicEvent {
+  kind: EventKind;
+  lambda: number;
+  v: number;
+  /** River time; NaN where undefined. */
+  river: number;
+  r: number;
+  theta: number;
+  phi: number;
+}
+
+export interface Invariants {
+  carter: number;
+  /** 2H = g^{μν} p_μ p_ν: −1 for a massive particle, 0 for light. */
+  twiceH: number;
+  r: number;
+  theta: number;
+  pr: number;
+  ptheta: number;
+}
+
+export interface GeodesicSamples {
+  count: number;
+  lambda: Float64Array;
+  v: Float64Array;
+  river: Float64Array;
+  t: Float64Array;
+  r: Float64Array;
+  theta: Float64Array;
+  phi: Float64Array;
+  phiBL: Float64Array;
+  x: Float64Array;
+  y: Float64Array;
+  z: Float64Array;
+}
+
+export interface Geodesic {
+  ok: true;
+  constants: MotionConstants;
+  start: Invariants;
+  end: Invariants;
+  termination: Termination;
+  /** λ at the end. */
+  length: number;
+  events: GeodesicEvent[];
+  eventCount: number;
+  samples: GeodesicSamples;
+  steps: { accepted: number; rejected: number; evaluations: number; smallest: number; largest: number };
+  rtol: number;
+  escapeRadius: number;
+  /** Why the river time becomes undefined (null when it stays defined). */
+  riverLostAt: number | null;
+}
+
+export type GeodesicRefusalReason = 'invalidInput' | 'noObserver' | 'speed' | 'forbiddenStart' | 'singularStart' | 'beyondEscape';
+
+export interface GeodesicRefused {
+  ok: false;
+  reason: GeodesicRefusalReason;
+  /** Which part of the request: 'start', 'speed', 'escapeRadius', ... */
+  field: string;
+  message: string;
+}
+
+export type GeodesicResult = Geodesic | GeodesicRefused;
+
+function refuse(reason: GeodesicRefusalReason, field: string, message: string): GeodesicRefused {
+  return { ok: false, reason, field, message };
+}
+
+/** Initial (p_r, p_θ) and constants from the request, or a refusal. */
+function initialMomentum(
+  s: KerrNewman,
+  particle: ParticleKind,
+  st: GeodesicStart,
+): { c: MotionConstants; pr: number; pth: number } | GeodesicRefused {
+  const kappa = particle === 'timelike' ? 1 : 0;
+  if (st.kind === 'observer') {
+    if (particle === 'timelike' && !(st.speed >= 0 && st.speed < 1)) return refuse('speed', 'speed', 'the speed of a massive particle must lie in [0, c)');
+    const tr = observerTetrad(s, st.observer, st.r, st.theta);
+    if (!tr.ok) {
+      const reason: TetradAbsenceReason = tr.reason;
+      return refuse(reason === 'onAxis' || reason === 'singular' ? 'singularStart' : 'noObserver', reason === 'onAxis' ? 'theta' : 'observer', TETRAD_REASONS[reason]);
+    }
+    const p = launchMomentum(tr.tetrad, particle, st.speed, st.psi, st.chi);
+    return { c: { E: -p[0]!, L: p[3]!, kappa }, pr: p[1]!, pth: p[2]! };
+  }
+  const { r, theta, E, L, carter } = st;
+  const sn = Math.sin(theta);
+  if (!(Math.abs(sn) > 1e-9)) return refuse('singularStart', 'theta', TETRAD_REASONS.onAxis);
+  const c: MotionConstants = { E, L, kappa };
+  const cs = Math.cos(theta);
+  const a = s.a;
+  const bigTheta = carter - cs * cs * (a * a * (kappa - E * E) + (L * L) / (sn * sn));
+  if (bigTheta < 0) {
+    return refuse('forbiddenStart', 'carter', `these constants cannot reach θ = ${theta}: p_θ² = K − cos²θ(a²(κ − E²) + L²/sin²θ) = ${bigTheta} < 0`);
+  }
+  const pth = st.polarSign * Math.sqrt(bigTheta);
+  const rho2 = r * r + a * a;
+  const delta = rho2 - (2 * r - s.q * s.q);
+  const sigma = r * r + a * a * cs * cs;
+  const P = E * rho2 - a * L;
+  const w0 = L - a * E * sn * sn;
+  const X = pth * pth + (w0 * w0) / (sn * sn) + kappa * sigma;
+  // Δ p_r² − 2P p_r + X = 0 with dr/dλ = (Δ p_r − P)/Σ = ±√R/Σ, R = P² − ΔX.
+  let bigR = P * P - delta * X;
+  // A start exactly at a turning point (R = 0) computes R as a rounding error either side of 0.
+  if (bigR < 0 && bigR >= -1e-12 * Math.max(P * P, Math.abs(delta * X))) bigR = 0;
+  if (bigR < 0) return refuse('forbiddenStart', 'energy', `these constants cannot reach r = ${r}: the radial potential R = P² − ΔX = ${bigR} < 0`);
+  const root = Math.sqrt(bigR);
+  // p_r = (P + σ√R)/Δ, or the conjugate X/(P − σ√R) where that has no cancellation (and on a horizon).
+  const sign = st.radialSign;
+  let pr: number;
+  if (sign * P <= 0 || delta === 0) pr = X / (P - sign * root);
+  else pr = (P + sign * root) / delta;
+  if (!Number.isFinite(pr)) return refuse('forbiddenStart', 'start', 'the momentum is not finite here (a turning point on the horizon)');
+  return { c, pr, pth };
+}
+
+function invariants(s: KerrNewman, c: MotionConstants, y: ArrayLike<number>): Invariants {
+  return {
+    carter: carterConstant(s, c, y[TH]!, y[PTH]!),
+    twiceH: twiceHamiltonian(s, c, y[R]!, y[TH]!, y[PR]!, y[PTH]!),
+    r: y[R]!,
+    theta: y[TH]!,
+    pr: y[PR]!,
+    ptheta: y[PTH]!,
+  };
+}
+
+/** Fraction of r₊ − r₋ above the inner horizon at which a path is stopped (see innerStopRadius). */
+export const INNER_MARGIN = 1e-6;
+
+/**
+ * Where a path is stopped at the inner horizon: r₋ + INNER_MARGIN·(r₊ − r₋). Ingoing coordinates are regular
+ * on the branch of the inner horizon that ingoing light crosses at finite v; a co-rotating path with
+ * P = E(r² + a²) − aL < 0 there reaches the other branch, where v, φ̃ (and the river time) diverge while
+ * its proper time stays finite. Stopping just above r₋ treats both branches alike; the proper time lost is
+ * about INNER_MARGIN·(r₊ − r₋)/|dr/dτ|. NaN when there is no inner horizon (r₋ = 0, or no horizon) or the
+ * hole is extremal to rounding (r₊ − r₋ ≤ 1e−9).
+ */
+export function innerStopRadius(s: KerrNewman): number {
+  const hz = horizons(s);
+  if (!hz || !(hz.inner > 0) || !(hz.outer - hz.inner > 1e-9)) return Number.NaN;
+  return hz.inner + INNER_MARGIN * (hz.outer - hz.inner);
+}
+
+/** Illinois regula falsi for a sign change of g on [lo, hi] (g(lo)·g(hi) < 0): returns the root. */
+function locate(g: (l: number) => number, lo: number, hi: number, glo: number, ghi: number): number {
+  let side = 0;
+  for (let i = 0; i < 100; i++) {
+    const m = (lo * ghi - hi * glo) / (ghi - glo);
+    if (!(m > Math.min(lo, hi) && m < Math.max(lo, hi)) || Math.abs(hi - lo) <= 4 * Number.EPSILON * Math.max(Math.abs(lo), Math.abs(hi))) {
+      return Number.isFinite(m) && m >= Math.min(lo, hi) && m <= Math.max(lo, hi) ? m : 0.5 * (lo + hi);
+    }
+    const gm = g(m);
+    if (gm === 0) return m;
+    if (gm * ghi < 0) {
+      lo = hi;
+      glo = ghi;
+      hi = m;
+      ghi = gm;
+      if (side === -1) glo *= 0.5;
+      side = -1;
+    } else {
+      hi = m;
+      ghi = gm;
+      glo *= 0.5;
+      if (side === 1) glo *= 0.5;
+      side = 1;
+    }
+  }
+  return hi;
+}
+
+/** Integrates a geodesic; see the module comment. Inputs are assumed finite (the API checks them). */
+export function geodesic(s: KerrNewman, req: GeodesicRequest): GeodesicResult {
+  const st = req.start;
+  if (![st.r, st.theta, st.phi, req.maxLength].every(Number.isFinite) || !(st.r > 0) || !(req.maxLength > 0) || !(req.samples >= 2)) {
+    return refuse('invalidInput', 'start', 'r, θ, φ and the maximum length must be finite, r and the length positive, and samples ≥ 2');
+  }
+  const sigma0 = st.r * st.r + s.a * s.a * Math.cos(st.theta) ** 2;
+  if (!(sigma0 > SINGULARITY_SIGMA)) return refuse('singularStart', 'start', TERMINATIONS.singularity);
+  const escapeRadius = req.escapeRadius ?? Math.max(1000, 10 * st.r);
+  if (!(escapeRadius > st.r)) return refuse('beyondEscape', 'escapeRadius', 'the escape radius must lie beyond the start');
+  const init = initialMomentum(s, req.particle, st);
+  if ('ok' in init) return init;
+  const { c } = init;
+  const rtol = req.rtol ?? DEFAULT_RTOL;
+  const maxSteps = req.maxSteps ?? DEFAULT_MAX_STEPS;
+  const stopAt = req.stopAt ?? 'innerHorizon';
+  const hz = horizons(s);
+  const rPlus = hz ? hz.outer : Number.NaN;
+  const rMinus = hz && hz.inner > 0 ? hz.inner : Number.NaN;
+  const surface = req.surfaceRadius ?? Number.NaN;
+  const q2 = s.q * s.q;
+
+  const y0 = new Float64Array(STATE_SIZE);
+  y0[R] = st.r;
+  y0[TH] = st.theta;
+  y0[PR] = init.pr;
+  y0[PTH] = init.pth;
+  y0[PHI] = st.phi;
+  const start = invariants(s, c, y0);
+  const sys = { n: STATE_SIZE, rhs: (_l: number, y: Float64Array, d: Float64Array) => geodesicRhs(s, c, y, d) };
+  const ode = new Dop853(sys, 0, y0, { rtol, atol: rtol * 1e-3 });
+
+  // Boyer–Lindquist clocks hold while the path stays outside the outer horizon (or there is none).
+  const outsideAtStart = !hz || st.r > rPlus;
+  const tor0 = tortoise(s, st.r);
+  let blValid = outsideAtStart && Number.isFinite(tor0.rStar);
+  let riverValid = 2 * st.r - q2 >= 0;
+  let riverLostAt: number | null = riverValid ? null : 0;
+
+  const cap = req.samples + 1;
+  const col = () => new Float64Array(cap);
+  const samples: GeodesicSamples = {
+    count: 0,
+    lambda: col(), v: col(), river: col(), t: col(), r: col(), theta: col(), phi: col(), phiBL: col(), x: col(), y: col(), z: col(),
+  };
+  const spacing = req.maxLength / (req.samples - 1);
+  let nextSample = 0;
+  const buf = new Float64Array(STATE_SIZE);
+  const push = (lambda: number, y: ArrayLike<number>) => {
+    const k = samples.count++;
+    let th = y[TH]!;
+    let ph = y[PHI]!;
+    // A path through the axis (L = 0) continues with θ < 0 or > π: report the same point in range.
+    if (th < 0 || th > Math.PI) {
+      th = th < 0 ? -th : 2 * Math.PI - th;
+      ph += Math.PI;
+    }
+    const r = y[R]!;
+    samples.lambda[k] = lambda;
+    samples.v[k] = y[V]!;
+    samples.river[k] = riverValid ? y[RIVER]! : Number.NaN;
+    samples.r[k] = r;
+    samples.theta[k] = th;
+    samples.phi[k] = ph;
+    if (blValid && !(r <= rPlus)) {
+      const tor = tortoise(s, r);
+      samples.t[k] = y[V]! - (tor.rStar - tor0.rStar);
+      samples.phiBL[k] = ph - (tor.phiStar - tor0.phiStar);
+    } else {
+      samples.t[k] = Number.NaN;
+      samples.phiBL[k] = Number.NaN;
+    }
+    const [x, yy, z] = kerrSchildCartesian(s, r, y[TH]!, y[PHI]!);
+    samples.x[k] = x;
+    samples.y[k] = yy;
+    samples.z[k] = z;
+  };
+
+  const events: GeodesicEvent[] = [];
+  let eventCount = 0;
+  const record = (kind: EventKind, lambda: number, y: ArrayLike<number>) => {
+    eventCount++;
+    if (events.length < MAX_EVENTS) {
+      events.push({ kind, lambda, v: y[V]!, river: riverValid ? y[RIVER]! : Number.NaN, r: y[R]!, theta: y[TH]!, phi: y[PHI]! });
+    }
+  };
+
+  // Event functions g(state); an event is a sign change across a step.
+  type Detector = { kind: EventKind; terminal: boolean; g: (y: ArrayLike<number>) => number; dir: -1 | 0 | 1 };
+  const detectors: Detector[] = [];
+  const sigmaOf = (y: ArrayLike<number>) => y[R]! * y[R]! + s.a * s.a * Math.cos(y[TH]!) ** 2;
+  // An extremal hole (r₊ = r₋ to rounding) is stopped at its one horizon.
+  const outerTerminal = stopAt === 'outerHorizon' || (Number.isFinite(rPlus) && !Number.isFinite(innerStopRadius(s)) && Number.isFinite(rMinus));
+  if (Number.isFinite(rPlus)) detectors.push({ kind: 'outerHorizon', terminal: outerTerminal, g: (y) => y[R]! - rPlus, dir: -1 });
+  // The inner horizon: a path stops at r₋ + INNER_MARGIN (r₊ − r₋) — see innerStopRadius.
+  const innerStop = innerStopRadius(s);
+  if (Number.isFinite(innerStop)) detectors.push({ kind: 'innerHorizon', terminal: stopAt === 'innerHorizon', g: (y) => y[R]! - innerStop, dir: -1 });
+  detectors.push({ kind: 'singularity', terminal: true, g: (y) => sigmaOf(y) - SINGULARITY_SIGMA, dir: -1 });
+  if (Number.isFinite(surface)) detectors.push({ kind: 'surface', terminal: true, g: (y) => y[R]! - surface, dir: -1 });
+  detectors.push({ kind: 'escape', terminal: true, g: (y) => y[R]! - escapeRadius, dir: 1 });
+  detectors.push({ kind: 'radialTurningPoint', terminal: false, g: (y) => radialVelocity(s, c, y[R]!, y[TH]!, y[PR]!), dir: 0 });
+  detectors.push({ kind: 'polarTurningPoint', terminal: false, g: (y) => y[PTH]!, dir: 0 });
+  let gOld = detectors.map((d) => d.g(y0));
+
+  push(0, y0);
+  nextSample = 1;
+  let termination: Termination = 'maxLength';
+  let smallest = Number.POSITIVE_INFINITY;
+  let largest = 0;
+  let endLambda = 0;
+  const endState = Float64Array.from(y0);
+  for (;;) {
+    if (ode.accepted + ode.rejected >= maxSteps) {
+      termination = 'maxSteps';
+      break;
+    }
+    const status = ode.step(req.maxLength - ode.t);
+    if (status !== 'accepted') {
+      termination = 'toleranceNotMet';
+      break;
+    }
+    const h = Math.abs(ode.hLast);
+    smallest = Math.min(smallest, h);
+    largest = Math.max(largest, h);
+    const gNew = detectors.map((d) => d.g(ode.y));
+    // The events of this step, in order of λ.
+    const found: { kind: EventKind; terminal: boolean; lambda: number }[] = [];
+    detectors.forEach((d, i) => {
+      const a = gOld[i]!;
+      const b = gNew[i]!;
+      const crosses = d.dir === 0 ? a * b < 0 : d.dir < 0 ? a > 0 && b <= 0 : a < 0 && b >= 0;
+      if (!crosses) return;
+      const lambda =
+        b === 0
+          ? ode.t
+          : locate(
+              (l) => {
+                ode.interpolate(l, buf);
+                return d.g(buf);
+              },
+              ode.tOld,
+              ode.t,
+              a,
+              b,
+            );
+      found.push({ kind: d.kind, terminal: d.terminal, lambda });
+    });
+    found.sort((p, q) => p.lambda - q.lambda);
+    const stop = found.find((f) => f.terminal);
+    const until = stop ? stop.lambda : ode.t;
+    // Samples up to the end of the step (or the terminal event).
+    while (nextSample < req.samples && nextSample * spacing <= until) {
+      const l = nextSample === req.samples - 1 ? req.maxLength : nextSample * spacing;
+      if (l > until) break;
+      if (l === ode.t) buf.set(ode.y);
+      else ode.interpolate(l, buf);
+      if (riverValid && 2 * buf[R]! - q2 < 0) {
+        riverValid = false;
+        riverLostAt = l;
+      }
+      push(l, buf);
+      nextSample++;
+    }
+    for (const f of found) {
+      if (f.lambda > until) break;
+      if (f.lambda === ode.t) buf.set(ode.y);
+      else ode.interpolate(f.lambda, buf);
+      if (f.kind === 'outerHorizon') blValid = false;
+      record(f.kind, f.lambda, buf);
+    }
+    if (riverValid && 2 * ode.y[R]! - q2 < 0) {
+      riverValid = false;
+      riverLostAt = ode.t;
+    }
+    if (stop) {
+      termination = stop.kind === 'radialTurningPoint' || stop.kind === 'polarTurningPoint' ? 'maxLength' : stop.kind;
+      if (stop.lambda === ode.t) endState.set(ode.y);
+      else ode.interpolate(stop.lambda, endState);
+      endLambda = stop.lambda;
+      break;
+    }
+    gOld = gNew;
+    endState.set(ode.y);
+    endLambda = ode.t;
+    if (ode.t >= req.maxLength) break;
+  }
+  if (samples.lambda[samples.count - 1] !== endLambda) push(endLambda, endState);
+  return {
+    ok: true,
+    constants: c,
+    start,
+    end: invariants(s, c, endState),
+    termination,
+    length: endLambda,
+    events,
+    eventCount,
+    samples,
+    steps: {
+      accepted: ode.accepted,
+      rejected: ode.rejected,
+      evaluations: ode.evaluations,
+      smallest: Number.isFinite(smallest) ? smallest : 0,
+      largest,
+    },
+    rtol,
+    escapeRadius,
+    riverLostAt,
+  };
+}
