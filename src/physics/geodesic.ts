@@ -206,7 +206,11 @@ function initialMomentum(
   const c: MotionConstants = { E, L, kappa };
   const cs = Math.cos(theta);
   const a = s.a;
-  const bigTheta = carter - cs * cs * (a * a * (kappa - E * E) + (L * L) / (sn * sn));
+  const polar = cs * cs * (a * a * (kappa - E * E) + (L * L) / (sn * sn));
+  let bigTheta = carter - polar;
+  // A start exactly at a polar turning point (e.g. the equator with K = 0) is a rounding error from 0.
+  // The scale is that of the terms of Θ before the factor cos²θ (which is ~1e−33, not 0, at θ = π/2 in doubles).
+  if (bigTheta < 0 && bigTheta >= -1e-12 * (Math.abs(carter) + a * a * Math.abs(kappa - E * E) + L * L)) bigTheta = 0;
   if (bigTheta < 0) {
     return refuse('forbiddenStart', 'carter', `these constants cannot reach θ = ${theta}: p_θ² = K − cos²θ(a²(κ − E²) + L²/sin²θ) = ${bigTheta} < 0`);
   }
