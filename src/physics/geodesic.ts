@@ -79,7 +79,7 @@ export interface GeodesicRequest {
   samples: number;
   /** Relative tolerance of each step (absolute tolerance rtol·1e−3). Default 1e−10. */
   rtol?: number;
-  /** Largest number of steps (accepted + rejected). Default DEFAULT_MAX_STEPS. */
+  /** Largest number of accepted steps (each may follow a few rejected tries). Default DEFAULT_MAX_STEPS. */
   maxSteps?: number;
   /** Radius at which an outgoing path counts as escaped. Default max(1000, 10 r₀). */
   escapeRadius?: number;
@@ -404,7 +404,7 @@ export function geodesic(s: KerrNewman, req: GeodesicRequest): GeodesicResult {
   let endLambda = 0;
   const endState = Float64Array.from(y0);
   for (;;) {
-    if (ode.accepted + ode.rejected >= maxSteps) {
+    if (ode.accepted >= maxSteps) {
       termination = 'maxSteps';
       break;
     }
