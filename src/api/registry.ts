@@ -2,6 +2,7 @@
  * Every compute route, in one list, for the app and the OpenAPI document.
  */
 import { clocksRoute } from './clocks.js';
+import { geodesicRoute } from './geodesic.js';
 import { deflectionRoute, delayRoute, shadowRoute } from './light.js';
 import { localRoute } from './local.js';
 import { circularRoute, precessionRoute } from './orbits.js';
@@ -10,4 +11,4 @@ import type { ComputeRoute } from './route.js';
 import { spacetimeRoute } from './spacetime.js';
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
-export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute, clocksRoute, properTimeRoute, circularRoute, precessionRoute, deflectionRoute, delayRoute, shadowRoute];
+export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [spacetimeRoute, localRoute, clocksRoute, properTimeRoute, circularRoute, precessionRoute, deflectionRoute, delayRoute, shadowRoute, geodesicRoute];
