@@ -102,6 +102,7 @@ export class Dop853 {
   private readonly sys: OdeSystem;
   private readonly k: Float64Array[];
   private readonly tmp: Float64Array;
+  private readonly acc: Float64Array;
   private readonly yNew: Float64Array;
   private readonly fOld: Float64Array;
   private readonly dense: Float64Array[];
@@ -123,6 +124,7 @@ export class Dop853 {
     this.f = new Float64Array(n);
     this.fOld = new Float64Array(n);
     this.tmp = new Float64Array(n);
+    this.acc = new Float64Array(n);
     this.yNew = new Float64Array(n);
     this.k = Array.from({ length: 16 }, () => new Float64Array(n));
     this.dense = Array.from({ length: 7 }, () => new Float64Array(n));
@@ -176,20 +178,10 @@ export class Dop853 {
       const t = this.t;
       k[0]!.set(this.f);
       for (let s = 1; s < N_STAGES; s++) {
-        const a = A[s]!;
-        for (let i = 0; i < n; i++) {
-          let acc = 0;
-          for (let j = 0; j < s; j++) acc += a[j]! * k[j]![i]!;
-          tmp[i] = y[i]! + h * acc;
-        }
+        this.combine(y, h, A[s]!, s, tmp);
         this.sys.rhs(t + C[s]! * h, tmp, k[s]!);
       }
-      const b = A[N_STAGES]!;
-      for (let i = 0; i < n; i++) {
-        let acc = 0;
-        for (let j = 0; j < N_STAGES; j++) acc += b[j]! * k[j]![i]!;
-        yNew[i] = y[i]! + h * acc;
-      }
+      this.combine(y, h, A[N_STAGES]!, N_STAGES, yNew);
       const fNew = k[N_STAGES]!;
       this.sys.rhs(t + h, yNew, fNew);
       this.evaluations += N_STAGES;
@@ -243,6 +235,20 @@ export class Dop853 {
     }
   }
 
+  /** out = base + h Σ_{j<s} a_j k_j, skipping the tableau's zero coefficients. */
+  private combine(base: Float64Array, h: number, a: readonly number[], s: number, out: Float64Array): void {
+    const n = this.n;
+    const acc = this.acc;
+    acc.fill(0);
+    for (let j = 0; j < s; j++) {
+      const aj = a[j]!;
+      if (aj === 0) continue;
+      const kj = this.k[j]!;
+      for (let i = 0; i < n; i++) acc[i]! += aj * kj[i]!;
+    }
+    for (let i = 0; i < n; i++) out[i] = base[i]! + h * acc[i]!;
+  }
+
   /** Builds the 7th-order continuous extension of the last step (three more evaluations). */
   private prepareDense(): void {
     const n = this.n;
@@ -251,12 +257,7 @@ export class Dop853 {
     const t = this.tOld;
     // Stage 12 of the extended tableau is f(t + h, y_new), already in k[12].
     for (let s = 13; s < 16; s++) {
-      const a = A[s]!;
-      for (let i = 0; i < n; i++) {
-        let acc = 0;
-        for (let j = 0; j < s; j++) acc += a[j]! * k[j]![i]!;
-        tmp[i] = this.yOld[i]! + h * acc;
-      }
+      this.combine(this.yOld, h, A[s]!, s, tmp);
       this.sys.rhs(t + C[s]! * h, tmp, k[s]!);
     }
     this.evaluations += 3;
