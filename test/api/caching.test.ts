@@ -105,6 +105,13 @@ const SAMPLES: Record<string, unknown> = {
   '/v1/light/deflection': { body: { mass: '1 Msun', spin: 0.5 }, ray: { closestApproach: '10 rg' }, direction: 'prograde' },
   '/v1/light/delay': { body: 'sun', from: '1 AU', to: '1.52 AU', ray: { closestApproach: '1 Rsun' } },
   '/v1/shadow': { body: { mass: '6.5e9 Msun', spin: 0.9 }, inclination: '17 deg', points: 32 },
+  '/v1/geodesic': {
+    body: { mass: '10 Msun', spin: 0.9 },
+    particle: 'massive',
+    start: { kind: 'launch', point: { r: '10 rg' }, observer: 'zamo', speed: '0.3 c', angle: '150 deg' },
+    duration: '200 tg',
+    samples: 20,
+  },
 };
 
 describe('cached bodies are the bytes of the fresh response', () => {
