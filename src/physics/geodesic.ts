@@ -93,6 +93,8 @@ export const DEFAULT_MAX_STEPS = 100_000;
 export const DEFAULT_RTOL = 1e-10;
 /** Σ (units of M²) at which the path is stopped as having reached the singularity. */
 export const SINGULARITY_SIGMA = 1e-4;
+/** |cos θ| below which a sign change of p_θ is rounding noise of equatorial motion, not a turning point. */
+const EQUATOR_NOISE = 1e-9;
 /** Events kept in the list (all are counted). */
 export const MAX_EVENTS = 1000;
 
@@ -422,7 +424,8 @@ export function geodesic(s: KerrNewman, req: GeodesicRequest): GeodesicResult {
     detectors.forEach((d, i) => {
       const a = gOld[i]!;
       const b = gNew[i]!;
-      const crosses = d.dir === 0 ? a * b < 0 : d.dir < 0 ? a > 0 && b <= 0 : a < 0 && b >= 0;
+      // A start exactly on a surface (g = 0) that moves through it counts as crossing there.
+      const crosses = d.dir === 0 ? a * b < 0 : d.dir < 0 ? (a > 0 && b <= 0) || (a === 0 && b < 0) : (a < 0 && b >= 0) || (a === 0 && b > 0);
       if (!crosses) return;
       const lambda =
         b === 0
@@ -460,6 +463,8 @@ export function geodesic(s: KerrNewman, req: GeodesicRequest): GeodesicResult {
       if (f.lambda === ode.t) buf.set(ode.y);
       else ode.interpolate(f.lambda, buf);
       if (f.kind === 'outerHorizon') blValid = false;
+      // On the equator p_θ is rounding noise for equatorial motion: its sign changes are not turning points.
+      if (f.kind === 'polarTurningPoint' && Math.abs(Math.cos(buf[TH]!)) < EQUATOR_NOISE) continue;
       record(f.kind, f.lambda, buf);
     }
     if (riverValid && 2 * ode.y[R]! - q2 < 0) {

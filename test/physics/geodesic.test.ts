@@ -174,6 +174,31 @@ describe('the ingoing Kerr–Newman metric and the observers', () => {
   });
 });
 
+describe('turning points', () => {
+  it('polar turning points of an inclined orbit lie where p_θ² = K − cos²θ(a²(1 − E²) + L²/sin²θ) = 0; equatorial orbits have none', () => {
+    const s = { a: 0.9, q: 0 };
+    const start = { kind: 'constants' as const, r: 12, theta: Math.PI / 2, phi: 0, E: 0.97, L: 3, carter: 4, radialSign: 1 as const, polarSign: 1 as const };
+    const g = ok(s, { particle: 'timelike', start, maxLength: 2000, samples: 2, rtol: 1e-12 });
+    const polar = g.events.filter((e) => e.kind === 'polarTurningPoint');
+    expect(polar.length).toBeGreaterThan(2);
+    for (const e of polar) {
+      const c2 = Math.cos(e.theta) ** 2;
+      const theta2 = 4 - c2 * (0.81 * (1 - 0.97 ** 2) + 9 / (1 - c2));
+      // Located on the dense output to ~1e−13 in λ; Θ has a simple zero there.
+      expect(Math.abs(theta2)).toBeLessThan(1e-9);
+    }
+    const flat = ok(s, { particle: 'timelike', start: { ...start, carter: 0 }, maxLength: 2000, samples: 2 });
+    expect(flat.events.some((e) => e.kind === 'polarTurningPoint')).toBe(false);
+    expect(flat.events.some((e) => e.kind === 'radialTurningPoint')).toBe(true);
+  });
+
+  it('a start exactly on a body\'s surface, moving inward, ends there at once', () => {
+    const g = ok({ a: 0, q: 0 }, { particle: 'timelike', start: launch('static', 6, Math.PI / 2, 0.1, Math.PI), maxLength: 100, samples: 3, surfaceRadius: 6 });
+    expect(g.termination).toBe('surface');
+    expect(g.length).toBe(0);
+  });
+});
+
 describe('refusals, limits and statuses', () => {
   const s = { a: 0.9, q: 0 };
   const base = { particle: 'timelike' as const, maxLength: 100, samples: 11 };
