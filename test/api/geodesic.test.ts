@@ -94,6 +94,29 @@ describe('horizon crossing against the free-fall clocks', () => {
   });
 });
 
+describe('inside the horizon', () => {
+  it('the river free-faller can launch between the horizons; far-away time is null from the start', async () => {
+    const r = await path({
+      body: hole,
+      particle: 'massive',
+      start: { kind: 'launch', point: { r: '1.2 rg', theta: '60 deg' }, observer: 'river', speed: '0.5 c', angle: '90 deg' },
+      duration: '50 tg',
+      samples: 20,
+    });
+    expect(r.start.point.region).toBe('betweenHorizons');
+    expect(r.outcome).toBe('plunged');
+    expect(r.termination.event).toBe('innerHorizon');
+    expect(r.samples.farAwayTime.values.every((v) => v === null)).toBe(true);
+    expect(r.samples.riverTime.values.every((v) => v !== null)).toBe(true);
+  });
+
+  it('a ZAMO cannot launch inside the horizon: 422 naming the observer', async () => {
+    const { status, json } = await post({ body: hole, particle: 'light', start: { kind: 'launch', point: { r: '1.2 rg' }, observer: 'zamo' } });
+    expect(status).toBe(422);
+    expect(String(json.detail)).toMatch(/zero-angular-momentum/);
+  });
+});
+
 describe('light and constants of motion', () => {
   it('light from constants (E, L, K) with signs', async () => {
     const r = await path({
