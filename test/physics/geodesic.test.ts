@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { freeFall } from '../../src/physics/free-fall.js';
 import { geodesic, innerStopRadius, type Geodesic, type GeodesicRequest } from '../../src/physics/geodesic.js';
 import { geodesicRhs, kerrSchildCartesian, tortoise } from '../../src/physics/geodesic-equations.js';
+import { circularOrbit, kerrIsco } from '../../src/physics/orbits.js';
 import { horizons, type KerrNewman } from '../../src/physics/spacetime.js';
 import { ingoingInverseMetric, ingoingMetric, launchMomentum, observerTetrad } from '../../src/physics/tetrads.js';
 
@@ -55,6 +56,30 @@ describe('radial plunges reproduce the free-fall clocks', () => {
     if (!ff.ok) throw new Error(ff.message);
     expect(Math.abs(ev.lambda - ff.properTime) / ff.properTime).toBeLessThan(1e-9);
     expect(Math.abs(ev.river - ff.riverTime!) / ff.riverTime!).toBeLessThan(1e-9);
+  });
+});
+
+describe('a plunge from the ISCO', () => {
+  it('with the ISCO circular orbit\'s E and L, just inside the ISCO, a body spirals in through the horizon (Kerr a = 0.9, prograde)', () => {
+    const s = { a: 0.9, q: 0 };
+    const rIsco = kerrIsco(0.9, 'prograde');
+    const orbit = circularOrbit(s, rIsco, 'prograde');
+    if (!('energy' in orbit)) throw new Error('no circular orbit at the ISCO');
+    // R(r) has a triple root at the ISCO and is positive just inside it: the plunge starts slowly.
+    const g = ok(s, {
+      particle: 'timelike',
+      start: { kind: 'constants', r: rIsco - 1e-3, theta: Math.PI / 2, phi: 0, E: orbit.energy, L: orbit.angularMomentum, carter: 0, radialSign: -1, polarSign: 1 },
+      maxLength: 5000,
+      samples: 101,
+      rtol: 1e-12,
+    });
+    const cross = g.events.find((e) => e.kind === 'outerHorizon');
+    expect(cross).toBeDefined();
+    expect(g.termination).toBe('innerHorizon');
+    // It winds round several times on the way in (the slow start near the triple root).
+    expect(cross!.phi).toBeGreaterThan(2 * Math.PI);
+    expect(g.events.some((e) => e.kind === 'radialTurningPoint')).toBe(false);
+    expect(Math.abs(g.end.carter)).toBeLessThan(1e-20);
   });
 });
 
