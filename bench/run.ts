@@ -8,6 +8,7 @@
  *    /v1/orbits/circular: "within the same ratio as /v1/local") are held to that instead.
  * 2. In-process: free fall by quadrature against scipy (./fall.ts).
  * 3. In-process: the Kerr shadow against numpy and the deflection of light against scipy (./light.ts).
+ *    Geodesics (./geodesic.ts): a 10-orbit Kerr geodesic against scipy's solve_ivp DOP853 (target ≥ 10×).
  * 4. Sweeps (./sweep.ts): a 1e6-point compute rate against numpy, and the same sweep as columnar JSON
  *    over HTTP from a fresh service (cold, cached repeat, peak RSS).
  *
@@ -28,6 +29,9 @@ import deflectionSchwarzschildR4 from './cases/deflection-schwarzschild-r4.js';
 import fallKerrEquator from './cases/fall-kerr-equator.js';
 import fallRnInfinity from './cases/fall-rn-infinity.js';
 import fallSchwarzschildRest from './cases/fall-schwarzschild-rest.js';
+import geodesicKerrInclined10k from './cases/geodesic-kerr-inclined-10k.js';
+import geodesicKerrInclined from './cases/geodesic-kerr-inclined.js';
+import geodesicKerrPlunge from './cases/geodesic-kerr-plunge.js';
 import localEarth from './cases/local-earth.js';
 import localGetCached from './cases/local-get-cached.js';
 import localGet from './cases/local-get.js';
@@ -37,6 +41,7 @@ import shadowKerr17deg from './cases/shadow-kerr-17deg.js';
 import sweepSmallCached from './cases/sweep-small-cached.js';
 import sweepFlow1e6 from './cases/sweep-flow-1e6.js';
 import { fallTable, measureFalls, type FallCase } from './fall.js';
+import { geodesicTable, measureGeodesics, type GeodesicBenchCase } from './geodesic.js';
 import { lightTable, measureLight, type LightCase } from './light.js';
 import {
   CONNECTIONS,
@@ -68,6 +73,7 @@ const CASES: readonly BenchCase[] = [
 const FALL_CASES: readonly FallCase[] = [fallKerrEquator, fallRnInfinity, fallSchwarzschildRest];
 const LIGHT_CASES: readonly LightCase[] = [shadowKerr17deg, deflectionSchwarzschildR4, deflectionKerrNewmanRetrograde];
 const SWEEP_CASES: readonly SweepCase[] = [sweepFlow1e6];
+const GEODESIC_CASES: readonly GeodesicBenchCase[] = [geodesicKerrInclined, geodesicKerrInclined10k, geodesicKerrPlunge];
 const TARGET_RATIO = 0.6;
 const TARGET_P99_MS = 5;
 /** The row the "vs GET /v1/local" column divides by. */
@@ -189,6 +195,8 @@ async function main(): Promise<void> {
   const falls = await measureFalls(ROOT, FALL_CASES);
   const lightLoad = loadavg()[0] ?? Number.NaN;
   const light = await measureLight(ROOT, LIGHT_CASES);
+  const geodesicLoad = loadavg()[0] ?? Number.NaN;
+  const geodesics = await measureGeodesics(ROOT, GEODESIC_CASES);
   const sweepLoad = loadavg()[0] ?? Number.NaN;
   const sweeps = await measureSweeps(ROOT, SWEEP_CASES);
 
@@ -215,7 +223,7 @@ async function main(): Promise<void> {
     `"vs GET /v1/local" divides by ${LOCAL_REFERENCE.name}`,
   ];
   process.stdout.write(
-    `${httpTable(rows, header)}\n\n${fallTable(falls, fallLoad)}\n\n${lightTable(light, lightLoad)}\n\n${sweepTable(sweeps, sweepLoad)}\n`,
+    `${httpTable(rows, header)}\n\n${fallTable(falls, fallLoad)}\n\n${lightTable(light, lightLoad)}\n\n${geodesicTable(geodesics, geodesicLoad)}\n\n${sweepTable(sweeps, sweepLoad)}\n`,
   );
 }
 

@@ -14,6 +14,13 @@ export const TIMING = {
   rounds: 5,
 } as const;
 
+/** The numbers of a timing procedure; TIMING by default, smaller for calls that take milliseconds. */
+export interface TimingProcedure {
+  minCalls: number;
+  roundSeconds: number;
+  rounds: number;
+}
+
 export interface Timing {
   /** Median over the rounds of the mean time per call, µs. */
   microseconds: number;
@@ -35,31 +42,31 @@ function median(xs: number[]): number {
  * that each lasts about TIMING.roundSeconds), then TIMING.rounds rounds of the same number of calls.
  * `fn` returns a number that is summed and checked, so its work cannot be dropped as unused.
  */
-export function timePerCall(fn: () => number): Timing {
+export function timePerCall(fn: () => number, procedure: TimingProcedure = TIMING): Timing {
   let sink = 0;
   const run = (n: number) => {
     const start = performance.now();
     for (let i = 0; i < n; i++) sink += fn();
     return (performance.now() - start) / n; // ms per call
   };
-  const warm = run(TIMING.minCalls);
-  const calls = Math.max(TIMING.minCalls, Math.ceil((TIMING.roundSeconds * 1000) / Math.max(warm, 1e-6)));
+  const warm = run(procedure.minCalls);
+  const calls = Math.max(procedure.minCalls, Math.ceil((procedure.roundSeconds * 1000) / Math.max(warm, 1e-6)));
   const perCall: number[] = [];
-  for (let r = 0; r < TIMING.rounds; r++) perCall.push(run(calls) * 1000);
+  for (let r = 0; r < procedure.rounds; r++) perCall.push(run(calls) * 1000);
   if (!Number.isFinite(sink)) throw new Error('the timed function returned a value that is not finite');
-  return { microseconds: median(perCall), min: Math.min(...perCall), max: Math.max(...perCall), callsPerRound: calls, rounds: TIMING.rounds };
+  return { microseconds: median(perCall), min: Math.min(...perCall), max: Math.max(...perCall), callsPerRound: calls, rounds: procedure.rounds };
 }
 
 /** The command-line arguments that hand TIMING to a Python rival (bench/rivals/rival_timing.py). */
-export function timingArguments(): string[] {
-  return ['--min-calls', TIMING.minCalls, '--round-seconds', TIMING.roundSeconds, '--rounds', TIMING.rounds].map(String);
+export function timingArguments(procedure: TimingProcedure = TIMING): string[] {
+  return ['--min-calls', procedure.minCalls, '--round-seconds', procedure.roundSeconds, '--rounds', procedure.rounds].map(String);
 }
 
 /** The procedure in words, for the header of an in-process table. */
-export function timingDescription(): string {
-  const calls = TIMING.minCalls.toLocaleString('en-US');
+export function timingDescription(procedure: TimingProcedure = TIMING): string {
+  const calls = procedure.minCalls.toLocaleString('en-US');
   return (
-    `${calls}-call warm-up, then ${TIMING.rounds} rounds of ≥ ${calls} calls (≥ ${TIMING.roundSeconds} s each); ` +
+    `${calls}-call warm-up, then ${procedure.rounds} rounds of ≥ ${calls} calls (≥ ${procedure.roundSeconds} s each); ` +
     'µs/call is the median round, fastest–slowest in brackets'
   );
 }

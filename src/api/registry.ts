@@ -2,6 +2,7 @@
  * Every compute route, in one list, for the app and the OpenAPI document.
  */
 import { clocksRoute } from './clocks.js';
+import { geodesicRoute } from './geodesic.js';
 import { deflectionRoute, delayRoute, shadowRoute } from './light.js';
 import { localRoute } from './local.js';
 import { circularRoute, precessionRoute } from './orbits.js';
@@ -22,6 +23,7 @@ export const COMPUTE_ROUTES: readonly ComputeRoute<any, any>[] = [
   deflectionRoute,
   delayRoute,
   shadowRoute,
+  geodesicRoute,
   tidalRoute,
   transformRoute,
 ];

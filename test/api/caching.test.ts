@@ -113,6 +113,13 @@ const SAMPLES: Record<string, unknown> = {
     jacobian: true,
   },
   '/v1/tidal': { body: { mass: '4e6 Msun', spin: 0.9, charge: 0.1 }, point: { r: '3 rg', theta: '60 deg' }, length: '2 m', star: 'sun' },
+  '/v1/geodesic': {
+    body: { mass: '10 Msun', spin: 0.9 },
+    particle: 'massive',
+    start: { kind: 'launch', point: { r: '10 rg' }, observer: 'zamo', speed: '0.3 c', angle: '150 deg' },
+    duration: '200 tg',
+    samples: 20,
+  },
 };
 
 describe('cached bodies are the bytes of the fresh response', () => {
