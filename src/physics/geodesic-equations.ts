@@ -1,7 +1,8 @@
 /**
  * Geodesics of Kerr–Newman in ingoing Kerr coordinates (v, r, θ, φ̃), which are regular across both
- * horizons: the equations of motion as a Hamiltonian system, the conserved quantities, and the
- * conversions of the clocks and angles to river (Doran), Boyer–Lindquist and Kerr–Schild Cartesian form.
+ * horizons: the equations of motion as a Hamiltonian system, the conserved quantities, and the rate
+ * of river (Doran) time along the path. Boyer–Lindquist t and φ and Kerr–Schild x, y, z are formed
+ * from v and φ̃ with the chart relations of coordinate-integrals.ts and coordinates.ts (t̄ = v − r).
  *
  * Geometric units G = c = M = 1. Ingoing Kerr coordinates (Misner, Thorne & Wheeler 1973, Box 33.2;
  * Poisson 2004, A Relativist's Toolkit, §5.3.6, with 2Mr → μ = 2r − Q² for the charge):
@@ -121,48 +122,4 @@ export function radialVelocity(s: KerrNewman, c: MotionConstants, r: number, th:
   const delta = rho2 - (2 * r - s.q * s.q);
   const cs = Math.cos(th);
   return (delta * pr - (c.E * rho2 - s.a * c.L)) / (r * r + a2 * cs * cs);
-}
-
-/**
- * The tortoise-type integrals that relate ingoing Kerr to Boyer–Lindquist coordinates, up to constants:
- *   t = v − r*(r),  r*(r) = ∫ (r² + a²)/Δ dr;   φ = φ̃ − φ*(r),  φ*(r) = ∫ a/Δ dr.
- * Closed forms by partial fractions (r± the roots of Δ, d = r₊ − r₋):
- *   r* = r + (r₊² + a²)/d ln|r − r₊| − (r₋² + a²)/d ln|r − r₋|,  φ* = (a/d) ln|(r − r₊)/(r − r₋)|;
- * an extremal hole (d = 0): r* = r + 2 ln|r − 1| − (1 + a²)/(r − 1), φ* = −a/(r − 1);
- * no horizon (a² + Q² > 1, bodies with a surface; b² = a² + Q² − 1):
- *   r* = r + ln Δ + ((2 − Q²)/b) atan((r − 1)/b),  φ* = (a/b) atan((r − 1)/b).
- * Infinite on a horizon.
- */
-export function tortoise(s: KerrNewman, r: number): { rStar: number; phiStar: number } {
-  const a2 = s.a * s.a;
-  const k = a2 + s.q * s.q;
-  if (k < 1) {
-    const root = Math.sqrt(1 - k);
-    const rp = 1 + root;
-    const rm = k / rp;
-    const dd = rp - rm;
-    const lp = Math.log(Math.abs(r - rp));
-    // With a = Q = 0 the inner root is 0 and its coefficient r₋² + a² vanishes: skip 0 · ln|r|.
-    const cm = rm * rm + a2;
-    const lm = cm === 0 && s.a === 0 ? 0 : Math.log(Math.abs(r - rm));
-    return {
-      rStar: r + ((rp * rp + a2) / dd) * lp - (cm / dd) * lm,
-      phiStar: s.a === 0 ? 0 : (s.a / dd) * (lp - lm),
-    };
-  }
-  if (k === 1) {
-    return { rStar: r + 2 * Math.log(Math.abs(r - 1)) - (1 + a2) / (r - 1), phiStar: -s.a / (r - 1) };
-  }
-  const b = Math.sqrt(k - 1);
-  const at = Math.atan((r - 1) / b);
-  const delta = (r - 1) * (r - 1) + b * b;
-  return { rStar: r + Math.log(delta) + ((2 - s.q * s.q) / b) * at, phiStar: (s.a / b) * at };
-}
-
-/** Kerr–Schild Cartesian position: x + iy = (r + ia) sinθ e^{iφ̃}, z = r cosθ. */
-export function kerrSchildCartesian(s: KerrNewman, r: number, th: number, phi: number): [number, number, number] {
-  const sn = Math.sin(th);
-  const cp = Math.cos(phi);
-  const sp = Math.sin(phi);
-  return [sn * (r * cp - s.a * sp), sn * (r * sp + s.a * cp), r * Math.cos(th)];
 }

@@ -20,11 +20,12 @@
  * The integration also ends at the maximum length, the maximum number of steps, or when the step size
  * falls below its floor (tolerance not met): each with its status; the path up to there stands.
  */
+import { kerrSchildAzimuthShift, kerrSchildTimeShift } from './coordinate-integrals.js';
+import { hubToCartesian } from './coordinates.js';
 import { Dop853 } from './dop853.js';
 import {
   carterConstant,
   geodesicRhs,
-  kerrSchildCartesian,
   PHI,
   PR,
   PTH,
@@ -33,7 +34,6 @@ import {
   RIVER,
   STATE_SIZE,
   TH,
-  tortoise,
   twiceHamiltonian,
   V,
   type MotionConstants,
@@ -207,8 +207,12 @@ export function geodesic(s: KerrNewman, req: GeodesicRequest): GeodesicResult {
 
   // Boyer–Lindquist clocks hold while the path stays outside the outer horizon (or there is none).
   const outsideAtStart = !hz || st.r > rPlus;
-  const tor0 = tortoise(s, st.r);
-  let blValid = outsideAtStart && Number.isFinite(tor0.rStar);
+  // t = v − r*(r) and φ = φ̃ − φ*(r) with r* = r + (t̄ − t)(r), φ* = (φ̄ − φ)(r) (coordinate-integrals.ts;
+  // t̄ = v − r): only differences from the start enter, so the clocks read 0 at the launch.
+  const rStar = (r: number) => r + kerrSchildTimeShift(s, r);
+  const rStar0 = rStar(st.r);
+  const phiStar0 = kerrSchildAzimuthShift(s, st.r);
+  let blValid = outsideAtStart && Number.isFinite(rStar0);
   let riverValid = 2 * st.r - q2 >= 0;
   let riverLostAt: number | null = riverValid ? null : 0;
 
@@ -238,14 +242,13 @@ export function geodesic(s: KerrNewman, req: GeodesicRequest): GeodesicResult {
     samples.theta[k] = th;
     samples.phi[k] = ph;
     if (blValid && !(r <= rPlus)) {
-      const tor = tortoise(s, r);
-      samples.t[k] = y[V]! - (tor.rStar - tor0.rStar);
-      samples.phiBL[k] = ph - (tor.phiStar - tor0.phiStar);
+      samples.t[k] = y[V]! - (rStar(r) - rStar0);
+      samples.phiBL[k] = ph - (kerrSchildAzimuthShift(s, r) - phiStar0);
     } else {
       samples.t[k] = Number.NaN;
       samples.phiBL[k] = Number.NaN;
     }
-    const [x, yy, z] = kerrSchildCartesian(s, r, y[TH]!, y[PHI]!);
+    const [, x, yy, z] = hubToCartesian(s, [0, r, y[TH]!, y[PHI]!]);
     samples.x[k] = x;
     samples.y[k] = yy;
     samples.z[k] = z;
