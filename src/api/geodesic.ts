@@ -258,6 +258,7 @@ export function computeGeodesic(input: GeodesicRequestInput): GeodesicResponse {
 
 export const geodesicRoute: ComputeRoute<GeodesicRequestInput> = {
   path: '/v1/geodesic',
+  serializer: 'json',
   operationId: 'geodesic',
   summary: 'Follow a geodesic through the horizons',
   description:

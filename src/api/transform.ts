@@ -243,6 +243,7 @@ const TRANSFORM_NOTES = [
 
 export const transformRoute: ComputeRoute<TransformRequest> = {
   path: '/v1/transform',
+  serializer: 'json',
   operationId: 'transform',
   summary: 'Events, vectors and covectors between Boyer–Lindquist, river and Kerr–Schild coordinates',
   description: `Converts a batch of events (at most ${TRANSFORM_LIMITS.maxEvents}) given in one chart — Boyer–Lindquist, river (Doran / Gullstrand–Painlevé) or ingoing Kerr–Schild Cartesian — into the others, with contravariant vectors (J = ∂x′/∂x), covectors (inverse transpose), and optionally the Jacobian and the metric components in each target chart. A chart that does not reach an event (Boyer–Lindquist on a horizon, river where 2GMr/c² < Q²) gives null with the reason.`,

@@ -5,6 +5,7 @@
  * one entry, concurrent identical requests computed once, errors never cached, CACHE_MAX_BYTES=0.
  */
 import Fastify, { type FastifyInstance, type LightMyRequestResponse } from 'fastify';
+import fastJson from 'fast-json-stringify';
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import { buildApp } from '../../src/app.js';
 import { localRoute } from '../../src/api/local.js';
@@ -154,6 +155,30 @@ describe('cached bodies are the bytes of the fresh response', () => {
       expect(cached.rawPayload.equals(cold.rawPayload), `${route.path} cached vs cold`).toBe(true);
       expect(cached.headers['content-type']).toBe(ref.headers['content-type']);
       expect(cached.headers['content-length']).toBe(ref.headers['content-length']);
+    }
+  });
+});
+
+describe('routes written by JSON.stringify', () => {
+  /** Further requests for the routes written by JSON.stringify: other outcomes, light, charged holes, events with nulls. */
+  const MORE: Record<string, object[]> = {
+    '/v1/geodesic': [
+      { body: { mass: '10 Msun', spin: 0.9 }, particle: 'massive', start: { kind: 'launch', point: { r: '10 rg' }, observer: 'zamo', speed: '0.6 c', angle: '30 deg' }, duration: '400 tg', samples: 30 },
+      { body: { mass: '10 Msun', spin: 0.6, charge: 0.5 }, particle: 'light', start: { kind: 'launch', point: { r: '6 rg', theta: '70 deg' }, observer: 'river', angle: '120 deg' }, duration: '300 tg', samples: 25 },
+    ],
+    '/v1/transform': [
+      { body: { mass: '10 Msun', spin: 0.5, charge: 0.8 }, from: 'kerrSchild', events: [{ coordinates: [0, '0.1 rg', 0, '0.2 rg'], vectors: [[1, 0, 0, 1]] }, { coordinates: [0, 0, 0, '3 rg'] }], metric: true, jacobian: true },
+    ],
+  };
+  it('write exactly the bytes of the compiled response-schema serialiser', async () => {
+    const json = COMPUTE_ROUTES.filter((r) => r.serializer === 'json');
+    expect(json.map((r) => r.path).sort()).toEqual(Object.keys(MORE).sort());
+    for (const route of json as readonly ComputeRoute<unknown, unknown>[]) {
+      const compiled = fastJson(responseSchema(route));
+      for (const payload of [SAMPLES[route.path] as object, ...MORE[route.path]!]) {
+        const doc = route.compute(route.body.parse(payload));
+        expect(JSON.stringify(doc), `${route.path} ${JSON.stringify(payload)}`).toBe(compiled(doc));
+      }
     }
   });
 });
