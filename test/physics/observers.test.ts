@@ -216,10 +216,13 @@ describe('observers against the Kerr–Newman core and their identities', () => 
         // The expansion may cancel (that is why it is not used); compare on the scale of its terms.
         const scale = x + Math.abs(2 * omega * s.a * p.sin2 * x) + omega * omega * g.phph;
         expect(Math.abs(1 - o.rate * o.rate - expanded)).toBeLessThanOrEqual(1e-13 * Math.max(scale, 1));
-        // The three parts add up to ln(dτ/dt).
+        // The three parts add up to ln(dτ/dt). ln(rate²) = ln(1 − y) has condition number y/(1 − y) =
+        // (1 − rate²)/rate²: near the speed of light (rate → 0) either side carries ~ε/rate² of rounding
+        // (seen: 3.5e-14 at rate 0.075), so that term joins the 1e-14 relative floor.
         if (o.split) {
           const sum = o.split.gravitational + o.split.frameDragging + o.split.motion;
-          expect(Math.abs(sum - o.logRate)).toBeLessThanOrEqual(1e-14 * Math.max(Math.abs(o.logRate), 1e-3));
+          const tol = 1e-14 * Math.max(Math.abs(o.logRate), 1e-3) + (4 * Number.EPSILON) / (o.rate * o.rate);
+          expect(Math.abs(sum - o.logRate)).toBeLessThanOrEqual(tol);
         }
         // u is a unit timelike vector: g_μν u^μ u^ν = −1.
         const u = o.fourVelocity;
