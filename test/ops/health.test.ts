@@ -6,16 +6,9 @@ import { describe, expect, it } from 'vitest';
 import { buildApp } from '../../src/app.js';
 import { defaultConfig } from '../../src/config.js';
 import { useApp } from '../helpers.js';
+import { sample } from './service-process.js';
 
 const app = useApp();
-
-/** The value of one series in a Prometheus text exposition, or undefined. */
-export function sample(text: string, series: string): number | undefined {
-  for (const line of text.split('\n')) {
-    if (line.startsWith(`${series} `)) return Number(line.slice(series.length + 1));
-  }
-  return undefined;
-}
 
 describe('GET /healthz', () => {
   it('says the process is alive, not to be cached', async () => {
