@@ -15,9 +15,12 @@ import { Agent, request } from 'undici';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startService, type ServiceProcess } from './service-process.js';
 
-const SLOW = 4;
-const SLOW_POINTS = 100_000;
+const SLOW = 3;
+/** Some 24 MB of CSV each: more than the socket buffers hold, so a slow reader holds it in flight. */
+const SLOW_POINTS = 400_000;
 const FAST_LOOPS = 4;
+/** Pause after each chunk a slow client reads, ms (a 24 MB response then takes seconds). */
+const READ_PAUSE_MS = 10;
 
 let service: ServiceProcess;
 beforeAll(async () => {
@@ -52,33 +55,47 @@ describe('SIGTERM under load', () => {
   it('finishes every request in flight, refuses new connections, exits 0', { timeout: 180_000 }, async () => {
     const agent = new Agent({ keepAliveTimeout: 30_000, connections: FAST_LOOPS + SLOW });
     const outcomes: Outcome[] = [];
-    const send = async (id: string, method: 'GET' | 'POST', path: string, body?: string): Promise<Outcome> => {
+    const headersReceived = new Set<string>();
+    const send = async (id: string, method: 'GET' | 'POST', path: string, body?: string, slowReader = false): Promise<Outcome> => {
       const o: Outcome = { id };
       outcomes.push(o);
       try {
         const res = await request(`${service.url}${path}`, {
           method,
           dispatcher: agent,
-          headers: { 'x-request-id': id, ...(body ? { 'content-type': 'application/json' } : {}) },
+          headers: { 'x-request-id': id, ...(body ? { 'content-type': 'application/json' } : {}), ...(slowReader ? { accept: 'text/csv' } : {}) },
           ...(body ? { body } : {}),
         });
         o.status = res.statusCode;
         o.contentType = String(res.headers['content-type']);
         o.retryAfter = res.headers['retry-after'] as string | undefined;
-        o.body = await res.body.text();
+        headersReceived.add(id);
+        if (slowReader) {
+          // A client on a slow link: the service must keep sending (the response stays in flight).
+          const chunks: Buffer[] = [];
+          for await (const chunk of res.body) {
+            chunks.push(chunk as Buffer);
+            await sleep(READ_PAUSE_MS);
+          }
+          o.body = Buffer.concat(chunks).toString('utf8');
+        } else {
+          o.body = await res.body.text();
+        }
       } catch (err) {
         o.error = (err as NodeJS.ErrnoException).code ?? String(err);
       }
       return o;
     };
 
-    // Slow requests: sweeps of 1e5 points, each a different grid (no cache, no coalescing).
+    // Slow requests: sweeps of 4e5 points as CSV, each a different grid (no cache, no coalescing),
+    // read by a slow client, so they are still being sent when the signal comes.
     const slow = Array.from({ length: SLOW }, (_, i) =>
       send(
         `slow-${i}`,
         'POST',
         '/v1/sweep',
         JSON.stringify({ body: { mass: '10 Msun', spin: 0.7 }, point: { r: '10 rg' }, quantities: ['flowSpeed', 'staticClockRate'], axes: [{ variable: 'r', from: `${3 + i} rg`, to: '1000 rg', count: SLOW_POINTS }] }),
+        true,
       ),
     );
     // Fast requests on kept-alive connections until the process has exited.
@@ -91,10 +108,9 @@ describe('SIGTERM under load', () => {
       }
     });
 
-    // The signal goes once the service has received every slow request.
-    const received = () => new Set(service.lines.filter((l) => l.msg === 'incoming request').map((l) => String(l.reqId)));
-    for (let waited = 0; ![...Array(SLOW).keys()].every((i) => received().has(`slow-${i}`)); waited += 20) {
-      if (waited > 60_000) throw new Error('the service never received the slow requests');
+    // The signal goes once every slow response has begun (each is then in flight until read).
+    for (let waited = 0; ![...Array(SLOW).keys()].every((i) => headersReceived.has(`slow-${i}`)); waited += 20) {
+      if (waited > 60_000) throw new Error('the slow responses never began');
       await sleep(20);
     }
     service.child.kill('SIGTERM');
@@ -123,13 +139,15 @@ describe('SIGTERM under load', () => {
     expect(refusedWhileRunning).toBe(true);
     expect(await tryConnect(service.port)).toBe('ECONNREFUSED');
 
-    // The slow ones: each a complete 200 with all its points.
+    // The slow ones: each a complete 200 with all its points (a header row, then one row per point).
     for (const o of await Promise.all(slow)) {
       expect(o.error, o.id).toBeUndefined();
       expect(o.status, o.id).toBe(200);
-      const doc = JSON.parse(o.body as string) as { shape: number[]; columns: { flowSpeed: { values: unknown[] } } };
-      expect(doc.shape).toEqual([SLOW_POINTS]);
-      expect(doc.columns.flowSpeed.values).toHaveLength(SLOW_POINTS);
+      expect(o.contentType, o.id).toMatch(/^text\/csv/);
+      const rows = (o.body as string).split('\r\n');
+      expect(rows.pop(), `${o.id} ends with a whole row`).toBe('');
+      expect(rows).toHaveLength(SLOW_POINTS + 1);
+      expect(rows[SLOW_POINTS]?.split(',')).toHaveLength(rows[0]?.split(',').length ?? -1);
     }
 
     // Every request the service received: answered in full. Before the signal: 200. After it (on a
@@ -158,9 +176,11 @@ describe('SIGTERM under load', () => {
       }
     }
     expect(before).toBeGreaterThan(SLOW);
-    // The sweeps were truly in flight: the service finished some of them after the signal.
+    // The sweeps were truly in flight: the service was still sending when the signal came (the last
+    // to begin, at least: the earlier ones may have gone into the socket buffers by then).
     const completedAt = new Map(lines.filter((l) => l.msg === 'request completed').map((l) => [String(l.reqId), Number(l.time)]));
-    expect([...Array(SLOW).keys()].some((i) => (completedAt.get(`slow-${i}`) ?? 0) > shutdownAt)).toBe(true);
+    const finishedAfter = [...Array(SLOW).keys()].filter((i) => (completedAt.get(`slow-${i}`) ?? 0) > shutdownAt);
+    expect(finishedAfter.length, JSON.stringify({ shutdownAt, completed: [...Array(SLOW).keys()].map((i) => completedAt.get(`slow-${i}`)) })).toBeGreaterThan(0);
     // Requests the client sent that never reached the service (refused or on a socket the service had
     // closed as idle) failed at the connection, never with a 5xx other than the 503 above.
     for (const o of outcomes) {
