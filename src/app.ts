@@ -50,6 +50,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     },
     // The protection plugin answers requests that arrive while closing with a 503 problem instead.
     return503OnClosing: false,
+    // Behind TRUST_PROXY_HOPS proxies, request.ip is the client's address from X-Forwarded-For.
+    ...(config.TRUST_PROXY_HOPS > 0 ? { trustProxy: (_address: string, hop: number) => hop < config.TRUST_PROXY_HOPS } : {}),
     routerOptions: { maxParamLength: 200 },
   });
 

@@ -94,6 +94,11 @@ const schema = z.object({
   /** The rate-limit window, ms. */
   RATE_LIMIT_WINDOW_MS: positiveInt.max(86_400_000).default(60_000),
   /**
+   * Reverse proxies in front of the service whose X-Forwarded-For is trusted, as a hop count: the
+   * client (for rate limits and logs) is then the address that many hops back. 0: the peer address.
+   */
+  TRUST_PROXY_HOPS: nonNegativeInt('TRUST_PROXY_HOPS').max(10).default(0),
+  /**
    * Overload: requests are answered 503 with Retry-After while the mean event-loop delay over the
    * last sample exceeds this (ms; 0: not checked). 1 s: a compute request takes well under 1 ms and
    * the largest sweep about a second, so a mean delay of a second means the queue is growing.

@@ -55,6 +55,7 @@ describe('configuration', () => {
       MAX_HEAP_USED_BYTES: '1.5',
       MAX_RSS_BYTES: '-4',
       RETRY_AFTER_S: '0',
+      TRUST_PROXY_HOPS: '11',
     };
     for (const [key, value] of Object.entries(bad)) {
       expect(() => loadConfig({ [key]: value }), key).toThrow(ConfigError);

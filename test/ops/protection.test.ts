@@ -111,6 +111,25 @@ describe('rate limiting', () => {
   });
 });
 
+describe('rate limiting behind a reverse proxy', () => {
+  it('counts each client by X-Forwarded-For when TRUST_PROXY_HOPS is set, and the proxy itself otherwise', async () => {
+    const proxy = { remoteAddress: '10.0.0.2' };
+    const from = (ip: string) => ({ ...proxy, headers: { 'x-forwarded-for': ip } });
+    const trusting = await build({ RATE_LIMIT_MAX: 1, TRUST_PROXY_HOPS: 1 });
+    const a1 = await trusting.inject({ method: 'GET', url: LOCAL, ...from('198.51.100.1') });
+    const b1 = await trusting.inject({ method: 'GET', url: LOCAL, ...from('198.51.100.2') });
+    const a2 = await trusting.inject({ method: 'GET', url: LOCAL, ...from('198.51.100.1') });
+    await trusting.close();
+    expect([a1.statusCode, b1.statusCode, a2.statusCode]).toEqual([200, 200, 429]);
+
+    const plain = await build({ RATE_LIMIT_MAX: 1 });
+    const c1 = await plain.inject({ method: 'GET', url: LOCAL, ...from('198.51.100.1') });
+    const c2 = await plain.inject({ method: 'GET', url: LOCAL, ...from('198.51.100.2') });
+    await plain.close();
+    expect([c1.statusCode, c2.statusCode]).toEqual([200, 429]);
+  });
+});
+
 describe('CORS', () => {
   const origin = 'https://calc.example.org';
 
