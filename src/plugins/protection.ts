@@ -42,18 +42,10 @@ export interface ProtectionOptions {
   sampleIntervalMs?: number;
 }
 
-declare module 'fastify' {
-  interface FastifyInstance {
-    /** True from the moment the app starts closing (new requests then get 503). */
-    isDraining(): boolean;
-  }
-}
-
 const plugin: FastifyPluginAsync<ProtectionOptions> = async (app, options) => {
   // Shutdown: from preClose on, a request arriving on a kept-alive connection gets a 503 problem
   // (fastify's own 503 on closing is plain JSON, so it is switched off in app.ts in favour of this).
   let draining = false;
-  app.decorate('isDraining', () => draining);
   app.addHook('preClose', async () => {
     draining = true;
   });
