@@ -22,6 +22,9 @@ import { request } from 'undici';
 import { runProgram, startServer, type Server } from './processes.js';
 import { formatTable, machineLine, TIMING } from './timing.js';
 
+/** Benchmarks measure speed: shedding on event-loop delay would turn a slow moment into 503s. */
+const NO_SHEDDING = { MAX_EVENT_LOOP_DELAY_MS: '0' };
+
 /** One 1e6-point sweep: the request body, and the same grid for the numpy rival. */
 export interface SweepCase {
   name: string;
@@ -149,7 +152,7 @@ async function timedPost(server: Server, body: string): Promise<{ ms: number; by
 async function measureHttp(root: string, c: SweepCase): Promise<SweepResult['http']> {
   const server = await startServer('service (sweep)', ['dist/src/server.js'], {
     cwd: root,
-    env: { HOST: '127.0.0.1', LOG_LEVEL: 'warn' },
+    env: { HOST: '127.0.0.1', LOG_LEVEL: 'warn', ...NO_SHEDDING },
     ready: { method: 'GET', path: '/' },
   });
   try {

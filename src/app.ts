@@ -16,17 +16,28 @@ import { resultCachePlugin } from './cache/plugin.js';
 import { defaultConfig, type Config } from './config.js';
 import { installErrorHandling, problemBody, sendProblem } from './error-handler.js';
 import { PROBLEMS, problemTypeUri, type ProblemCode } from './errors.js';
+import { healthPlugin } from './plugins/health.js';
+import { metricsPlugin } from './plugins/metrics.js';
+import { protectionPlugin } from './plugins/protection.js';
 
 export interface AppOptions {
+  /**
+   * The configuration; server.ts always passes the environment's. Without it: the defaults, except
+   * that shedding on event-loop delay is off — in-process tests block the loop for seconds (module
+   * compilation on a shared machine, large sweeps) and would be shed at random. Tests of shedding
+   * pass a config that turns it on.
+   */
   config?: Config;
   /** fastify logger option; defaults to pino at the configured level. Tests pass false. */
   logger?: FastifyServerOptions['logger'];
+  /** How often the overload figures are sampled, ms (default 1000; tests shorten it). */
+  pressureSampleIntervalMs?: number;
 }
 
 const SAFE_REQUEST_ID = /^[A-Za-z0-9._:-]{1,64}$/;
 
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
-  const config = options.config ?? defaultConfig();
+  const config = options.config ?? defaultConfig({ MAX_EVENT_LOOP_DELAY_MS: 0 });
   const app = Fastify({
     logger: options.logger ?? { level: config.LOG_LEVEL },
     bodyLimit: config.BODY_LIMIT_BYTES,
@@ -37,7 +48,10 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
       const given = req.headers['x-request-id'];
       return typeof given === 'string' && SAFE_REQUEST_ID.test(given) ? given : randomUUID();
     },
-    return503OnClosing: true,
+    // The protection plugin answers requests that arrive while closing with a 503 problem instead.
+    return503OnClosing: false,
+    // Behind TRUST_PROXY_HOPS proxies, request.ip is the client's address from X-Forwarded-For.
+    ...(config.TRUST_PROXY_HOPS > 0 ? { trustProxy: (_address: string, hop: number) => hop < config.TRUST_PROXY_HOPS } : {}),
     routerOptions: { maxParamLength: 200 },
   });
 
@@ -47,7 +61,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     reply.header('x-request-id', request.id);
     done();
   });
-  installErrorHandling(app);
+  installErrorHandling(app, { retryAfterSeconds: config.RETRY_AFTER_S });
 
   await app.register(resultCachePlugin, {
     maxBytes: config.CACHE_MAX_BYTES,
@@ -64,6 +78,19 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
           },
         }),
   });
+  // Before every route: the metrics hook, shedding, rate limits, CORS and headers cover them all.
+  await app.register(metricsPlugin, { expose: config.METRICS_ENABLED });
+  await app.register(protectionPlugin, {
+    corsOrigins: config.CORS_ORIGINS,
+    rateLimitMax: config.RATE_LIMIT_MAX,
+    rateLimitWindowMs: config.RATE_LIMIT_WINDOW_MS,
+    maxEventLoopDelayMs: config.MAX_EVENT_LOOP_DELAY_MS,
+    maxHeapUsedBytes: config.MAX_HEAP_USED_BYTES,
+    maxRssBytes: config.MAX_RSS_BYTES,
+    retryAfterSeconds: config.RETRY_AFTER_S,
+    ...(options.pressureSampleIntervalMs ? { sampleIntervalMs: options.pressureSampleIntervalMs } : {}),
+  });
+  await app.register(healthPlugin, { retryAfterSeconds: config.RETRY_AFTER_S });
   for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route, app.resultCache);
   registerSweepRoute(app, config.SWEEP_MAX_POINTS, app.resultCache);
   registerQuantities(app);
@@ -85,12 +112,13 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
       return body;
     });
     await app.register(fastifySwagger, { mode: 'static', specification: { document: document as never } });
-    await app.register(fastifySwaggerUi, { routePrefix: '/docs' });
+    // swagger-ui sets its own Content-Security-Policy (its scripts and styles by hash) over helmet's.
+    await app.register(fastifySwaggerUi, { routePrefix: '/docs', staticCSP: true });
   }
 
   app.get('/', async () => ({
     service,
-    links: { openapi: '/openapi.json', docs: '/docs', quantities: '/v1/quantities', spacetime: '/v1/spacetime', local: '/v1/local' },
+    links: { openapi: '/openapi.json', docs: '/docs', quantities: '/v1/quantities', spacetime: '/v1/spacetime', local: '/v1/local', health: '/healthz', ready: '/readyz' },
   }));
   return app;
 }

@@ -9,6 +9,53 @@ const positiveInt = z.coerce.number().int().positive();
 /** Largest result-cache bound accepted: 16 GiB, beyond any heap a Node process is given. */
 const MAX_CACHE_BYTES = 16 * 1024 ** 3;
 
+/** A whole number ≥ 0 whose errors name the variable. */
+function nonNegativeInt(name: string) {
+  return z.coerce
+    .number({ error: `${name} must be a number` })
+    .int({ error: `${name} must be a whole number` })
+    .min(0, { error: `${name} must not be negative (0 switches the check off)` });
+}
+
+/** true/false (also 1/0, yes/no); z.coerce.boolean would read "false" as true. */
+function flag(name: string) {
+  return z
+    .string()
+    .trim()
+    .toLowerCase()
+    .pipe(z.enum(['true', 'false', '1', '0', 'yes', 'no'], { error: `${name} must be true or false` }))
+    .transform((v) => v === 'true' || v === '1' || v === 'yes');
+}
+
+/**
+ * CORS_ORIGINS: "" (off), "*" (any origin, said explicitly) or a comma-separated list of origins,
+ * each scheme://host[:port] with no path — what a browser sends in the Origin header.
+ */
+function parseOrigins(value: string, ctx: z.RefinementCtx): string[] {
+  const items = value
+    .split(',')
+    .map((s) => s.trim())
+    .filter((s) => s !== '');
+  if (items.length === 1 && items[0] === '*') return ['*'];
+  for (const item of items) {
+    let ok = false;
+    try {
+      const u = new URL(item);
+      ok = (u.protocol === 'http:' || u.protocol === 'https:') && u.origin === item.replace(/\/$/, '');
+    } catch {
+      ok = false;
+    }
+    if (!ok) {
+      ctx.addIssue({
+        code: 'custom',
+        message: `CORS_ORIGINS must be empty, "*" alone, or a comma-separated list of origins like https://calc.example.org (scheme, host and port, no path); "${item.slice(0, 100)}" is not one`,
+      });
+      return [];
+    }
+  }
+  return items.map((s) => s.replace(/\/$/, ''));
+}
+
 const schema = z.object({
   PORT: port.default(8080),
   HOST: z.string().min(1).default('0.0.0.0'),
@@ -49,6 +96,45 @@ const schema = z.object({
   /** Lifetime of a Redis entry, seconds (1 day). */
   CACHE_TTL_SECONDS: positiveInt.max(365 * 86_400).default(86_400),
   // ---- end of the shared result cache block ----
+  // --- Operations: metrics, protection against overload, CORS (kept as one block) ---
+  /** Serve GET /metrics in the Prometheus text format. */
+  METRICS_ENABLED: flag('METRICS_ENABLED').default(true),
+  /** Browser origins allowed by CORS, comma-separated; empty: CORS off; "*": any origin. */
+  CORS_ORIGINS: z
+    .string()
+    .default('')
+    .transform((v, ctx) => parseOrigins(v, ctx)),
+  /** Requests per client (IP) per window; 0 switches rate limiting off (the default). */
+  RATE_LIMIT_MAX: z.coerce
+    .number({ error: 'RATE_LIMIT_MAX must be a number of requests (0 switches rate limiting off)' })
+    .int({ error: 'RATE_LIMIT_MAX must be a whole number' })
+    .min(0, { error: 'RATE_LIMIT_MAX must not be negative (0 switches rate limiting off)' })
+    .max(1_000_000_000)
+    .default(0),
+  /** The rate-limit window, ms. */
+  RATE_LIMIT_WINDOW_MS: positiveInt.max(86_400_000).default(60_000),
+  /**
+   * Reverse proxies in front of the service whose X-Forwarded-For is trusted, as a hop count: the
+   * client (for rate limits and logs) is then the address that many hops back. 0: the peer address.
+   */
+  TRUST_PROXY_HOPS: nonNegativeInt('TRUST_PROXY_HOPS').max(10).default(0),
+  /**
+   * Overload: requests are answered 503 with Retry-After while the mean event-loop delay over the
+   * last sample exceeds this (ms; 0: not checked). 1 s: a compute request takes well under 1 ms and
+   * the largest sweep about a second, so a mean delay of a second means the queue is growing.
+   */
+  MAX_EVENT_LOOP_DELAY_MS: nonNegativeInt('MAX_EVENT_LOOP_DELAY_MS').max(600_000).default(1_000),
+  /**
+   * Overload: 503 while the V8 heap in use exceeds this (bytes; 0: not checked). 3 GiB: below the
+   * ~4 GiB heap limit Node gives itself on a 24 GiB machine, so the process sheds load before it
+   * would die of an out-of-memory error.
+   */
+  MAX_HEAP_USED_BYTES: nonNegativeInt('MAX_HEAP_USED_BYTES').max(MAX_CACHE_BYTES).default(3 * 1024 ** 3),
+  /** Overload: 503 while the resident set exceeds this (bytes; 0: not checked). 6 GiB of 24. */
+  MAX_RSS_BYTES: nonNegativeInt('MAX_RSS_BYTES').max(4 * MAX_CACHE_BYTES).default(6 * 1024 ** 3),
+  /** Seconds a client is told to wait (Retry-After) when the service sheds load or shuts down. */
+  RETRY_AFTER_S: positiveInt.max(3_600).default(5),
+  // --- end of operations block ---
 });
 
 export type Config = z.infer<typeof schema>;

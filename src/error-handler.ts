@@ -64,8 +64,17 @@ function classify(err: FastifyError, request: FastifyRequest): { code: ProblemCo
   return { code: 'internal-error', detail: 'an internal error occurred; quote the requestId when reporting it' };
 }
 
-export function installErrorHandling(app: FastifyInstance): void {
+export interface ErrorHandlingOptions {
+  /** Retry-After (seconds) on a 503 that does not set its own. */
+  retryAfterSeconds?: number;
+}
+
+export function installErrorHandling(app: FastifyInstance, options: ErrorHandlingOptions = {}): void {
+  const retryAfter = String(options.retryAfterSeconds ?? 5);
   app.setErrorHandler((err: FastifyError, request, reply) => {
+    // Every 503 (shedding, shutting down) and 429 tells the client when to come back.
+    const status = err instanceof ProblemError ? err.status : (err.statusCode ?? 500);
+    if ((status === 503 || status === 429) && !reply.hasHeader('retry-after')) reply.header('retry-after', retryAfter);
     if (err instanceof ProblemError) {
       return sendProblem(reply, problemBody(request, err.code, err.message, err.errors));
     }

@@ -53,7 +53,7 @@ export const PROBLEMS = {
   'too-many-requests': {
     status: 429,
     title: 'Too many requests',
-    description: 'The client has exceeded the configured request rate; retry after the time given.',
+    description: 'The client has sent more requests than RATE_LIMIT_MAX within RATE_LIMIT_WINDOW_MS; retry after the time given in Retry-After.',
   },
   'internal-error': {
     status: 500,
@@ -64,7 +64,13 @@ export const PROBLEMS = {
   'service-unavailable': {
     status: 503,
     title: 'Service unavailable',
-    description: 'The service is overloaded or shutting down; retry after the time given.',
+    description: 'The service is shutting down; retry after the time given in Retry-After (another instance may answer at once).',
+  },
+  overloaded: {
+    status: 503,
+    title: 'The service is overloaded',
+    description:
+      'The service is shedding load because its event-loop delay or memory is over the configured limit (MAX_EVENT_LOOP_DELAY_MS, MAX_HEAP_USED_BYTES, MAX_RSS_BYTES); retry after the time given in Retry-After.',
   },
 } as const satisfies Record<string, ProblemType>;
 

@@ -3,6 +3,7 @@
  */
 import { buildApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
+import { installGracefulShutdown } from './shutdown.js';
 
 async function main(): Promise<void> {
   let config;
@@ -16,26 +17,7 @@ async function main(): Promise<void> {
     throw err;
   }
   const app = await buildApp({ config });
-  let closing = false;
-  const shutdown = (signal: string) => {
-    if (closing) return;
-    closing = true;
-    app.log.info({ signal }, 'shutting down: no new connections, finishing in-flight requests');
-    const timer = setTimeout(() => {
-      app.log.error('shutdown grace period over; exiting');
-      process.exit(1);
-    }, config.SHUTDOWN_GRACE_MS);
-    timer.unref();
-    app.close().then(
-      () => process.exit(0),
-      (err) => {
-        app.log.error({ err }, 'error while closing');
-        process.exit(1);
-      },
-    );
-  };
-  process.on('SIGTERM', () => shutdown('SIGTERM'));
-  process.on('SIGINT', () => shutdown('SIGINT'));
+  installGracefulShutdown(app, { graceMs: config.SHUTDOWN_GRACE_MS });
   await app.listen({ port: config.PORT, host: config.HOST });
 }
 

@@ -23,10 +23,55 @@ describe('configuration', () => {
     expect(() => loadConfig({ LOG_LEVEL: 'loud' })).toThrow(/LOG_LEVEL/);
   });
 
+  it('operations defaults: metrics on, CORS and rate limit off, shedding thresholds for a 2-core 24 GiB machine', () => {
+    const c = loadConfig({});
+    expect(c).toMatchObject({ METRICS_ENABLED: true, CORS_ORIGINS: [], RATE_LIMIT_MAX: 0, RATE_LIMIT_WINDOW_MS: 60_000, RETRY_AFTER_S: 5 });
+    expect(c.MAX_EVENT_LOOP_DELAY_MS).toBe(1000);
+    expect(c.MAX_HEAP_USED_BYTES).toBe(3 * 1024 ** 3);
+    expect(c.MAX_RSS_BYTES).toBe(6 * 1024 ** 3);
+  });
+
+  it('reads CORS_ORIGINS as a list of origins, "*" only alone, empty as off', () => {
+    expect(loadConfig({ CORS_ORIGINS: 'https://calc.example.org, http://localhost:5173/' }).CORS_ORIGINS).toEqual(['https://calc.example.org', 'http://localhost:5173']);
+    expect(loadConfig({ CORS_ORIGINS: '*' }).CORS_ORIGINS).toEqual(['*']);
+    expect(loadConfig({ CORS_ORIGINS: '' }).CORS_ORIGINS).toEqual([]);
+    for (const bad of ['calc.example.org', 'https://calc.example.org/page', 'ftp://files.example.org', '*,https://a.example.org', 'https://']) {
+      expect(() => loadConfig({ CORS_ORIGINS: bad }), bad).toThrow(/CORS_ORIGINS/);
+    }
+  });
+
+  it('reads METRICS_ENABLED as a flag ("false" is false)', () => {
+    expect(loadConfig({ METRICS_ENABLED: 'false' }).METRICS_ENABLED).toBe(false);
+    expect(loadConfig({ METRICS_ENABLED: '0' }).METRICS_ENABLED).toBe(false);
+    expect(loadConfig({ METRICS_ENABLED: 'TRUE' }).METRICS_ENABLED).toBe(true);
+    expect(() => loadConfig({ METRICS_ENABLED: 'maybe' })).toThrow(/METRICS_ENABLED/);
+  });
+
+  it('names each bad operations variable', () => {
+    const bad: Record<string, string> = {
+      RATE_LIMIT_MAX: '-1',
+      RATE_LIMIT_WINDOW_MS: '0',
+      MAX_EVENT_LOOP_DELAY_MS: 'soon',
+      MAX_HEAP_USED_BYTES: '1.5',
+      MAX_RSS_BYTES: '-4',
+      RETRY_AFTER_S: '0',
+      TRUST_PROXY_HOPS: '11',
+    };
+    for (const [key, value] of Object.entries(bad)) {
+      expect(() => loadConfig({ [key]: value }), key).toThrow(ConfigError);
+      expect(() => loadConfig({ [key]: value }), key).toThrow(new RegExp(`^invalid configuration:\\n  ${key}: `));
+    }
+    expect(loadConfig({ RATE_LIMIT_MAX: '100', RATE_LIMIT_WINDOW_MS: '1000', MAX_EVENT_LOOP_DELAY_MS: '0' })).toMatchObject({
+      RATE_LIMIT_MAX: 100,
+      RATE_LIMIT_WINDOW_MS: 1000,
+      MAX_EVENT_LOOP_DELAY_MS: 0,
+    });
+  });
+
   it('every variable is documented in README.md and .env.example', () => {
     const readme = readFileSync(new URL('../README.md', import.meta.url), 'utf8');
     const example = readFileSync(new URL('../.env.example', import.meta.url), 'utf8');
-    for (const key of ['PORT', 'HOST', 'LOG_LEVEL', 'BODY_LIMIT_BYTES', 'REQUEST_TIMEOUT_MS', 'SHUTDOWN_GRACE_MS', 'SWEEP_MAX_POINTS', 'CACHE_MAX_BYTES']) {
+    for (const key of Object.keys(loadConfig({}))) {
       expect(readme).toContain(`\`${key}\``);
       expect(example).toContain(`${key}=`);
     }

@@ -86,10 +86,67 @@ function queryParameters(query: z.ZodType): Json[] {
   }));
 }
 
+/** /healthz, /readyz and /metrics (src/plugins/health.ts, metrics.ts). */
+function operationsPaths(): Json {
+  const cache = {
+    type: 'object',
+    required: ['backend', 'state'],
+    properties: {
+      backend: { type: 'string', enum: ['memory', 'disabled', 'redis'] },
+      state: { type: 'string', enum: ['ready', 'degraded'], description: 'degraded: the store is unreachable and every request is computed (answers stay correct).' },
+      detail: { type: 'string' },
+    },
+  };
+  const serviceRef = { type: 'object', required: ['name', 'version'], properties: { name: { type: 'string' }, version: { type: 'string' } } };
+  return {
+    '/healthz': {
+      get: {
+        operationId: 'healthz',
+        summary: 'Liveness: the process runs and its event loop answers',
+        description: 'Answers 200 whenever the process can answer at all, also while it sheds load.',
+        tags: ['operations'],
+        responses: {
+          '200': {
+            description: 'Alive.',
+            content: { 'application/json': { schema: { type: 'object', required: ['status', 'service'], properties: { status: { const: 'alive' }, service: serviceRef } } } },
+          },
+          ...problemResponses([503]),
+        },
+      },
+    },
+    '/readyz': {
+      get: {
+        operationId: 'readyz',
+        summary: 'Readiness: ready to serve, with the result-cache backend and its state',
+        description: '503 (problem details with Retry-After, and the cache state) while the service sheds load or shuts down. A degraded cache leaves the service ready: requests are then computed.',
+        tags: ['operations'],
+        responses: {
+          '200': {
+            description: 'Ready.',
+            content: { 'application/json': { schema: { type: 'object', required: ['status', 'cache', 'service'], properties: { status: { const: 'ready' }, cache, service: serviceRef } } } },
+          },
+          ...problemResponses([503]),
+        },
+      },
+    },
+    '/metrics': {
+      get: {
+        operationId: 'metrics',
+        summary: 'Metrics in the Prometheus text format',
+        description: 'Requests and latency by route pattern and status, result-cache hits, misses, evictions and sizes, load shedding, event-loop lag, heap and resident memory. Served when METRICS_ENABLED is true (the default).',
+        tags: ['operations'],
+        responses: { '200': { description: 'The metrics.', content: { 'text/plain': { schema: { type: 'string' } } } } },
+      },
+    },
+  };
+}
+
 export function buildOpenApiDocument(): Json {
   const defs: Json = { Problem: problemSchema };
   const paths: Json = {};
-  const errors = problemResponses([400, 413, 415, 422, 500]);
+  // Any route may shed load (503 overloaded), refuse while shutting down (503) or, with rate
+  // limiting on, refuse a client over its rate (429); each with Retry-After.
+  const errors = problemResponses([400, 413, 415, 422, 429, 500, 503]);
   for (const route of COMPUTE_ROUTES) {
     const ok = {
       description: 'The result.',
@@ -115,7 +172,7 @@ export function buildOpenApiDocument(): Json {
         description: `${route.description} The same as POST, with the body and point as flat query parameters.`,
         tags: [route.tag],
         parameters: queryParameters(route.get.query),
-        responses: { '200': ok, ...problemResponses([400, 422, 500]) },
+        responses: { '200': ok, ...problemResponses([400, 422, 429, 500, 503]) },
       };
     }
     paths[route.path] = item;
@@ -136,10 +193,11 @@ export function buildOpenApiDocument(): Json {
             'text/csv': { schema: { type: 'string', description: 'Header row naming each column with its unit, then one row per grid point; empty fields are nulls.' } },
           },
         },
-        ...problemResponses([400, 413, 415, 422, 500]),
+        ...problemResponses([400, 413, 415, 422, 429, 500, 503]),
       },
     },
   };
+  Object.assign(paths, operationsPaths());
   paths['/v1/quantities'] = {
     get: {
       operationId: 'quantities',
@@ -192,6 +250,7 @@ export function buildOpenApiDocument(): Json {
       { name: 'tides', description: 'Curvature seen by observers: tidal stretching and squeezing, tidal disruption of stars.' },
       { name: 'sweeps', description: 'Grids of quantities for plots and tables.' },
       { name: 'catalogue', description: 'What the service computes and how it reports errors.' },
+      { name: 'operations', description: 'Probes and metrics for orchestrators and monitoring; never rate-limited or shed.' },
     ],
     paths,
     components: { schemas: defs },
