@@ -12,7 +12,6 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parse as parseYaml } from 'yaml';
-import { buildApp } from '../../src/app.js';
 import { freePort } from '../redis-server.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
