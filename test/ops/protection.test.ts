@@ -5,12 +5,15 @@
  * to requests that arrive while the app closes.
  */
 import { createHash } from 'node:crypto';
+import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type { FastifyInstance, LightMyRequestResponse } from 'fastify';
+import helmet from 'helmet';
 import { Client } from 'undici';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from '../../src/app.js';
 import { defaultConfig, type Config } from '../../src/config.js';
+import { securityHeaders } from '../../src/plugins/protection.js';
 import { useApp } from '../helpers.js';
 
 const LOCAL = '/v1/local?body=earth&altitude=400%20km';
@@ -249,6 +252,26 @@ describe('while closing', () => {
     } finally {
       await client.close().catch(() => {});
       await app.close();
+    }
+  });
+});
+
+describe('security headers computed once', () => {
+  it('are exactly the headers helmet\'s middleware sets on a real response', async () => {
+    const options = { crossOriginResourcePolicy: { policy: 'same-origin' as const } };
+    const server = createServer((req, res) => helmet(options)(req, res, () => res.end('{}')));
+    await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+    try {
+      const res = await fetch(`http://127.0.0.1:${(server.address() as AddressInfo).port}/`);
+      const set: Record<string, string> = {};
+      const transport = new Set(['date', 'connection', 'keep-alive', 'content-length', 'transfer-encoding']);
+      res.headers.forEach((value, name) => {
+        if (!transport.has(name)) set[name] = value;
+      });
+      expect(securityHeaders(options)).toEqual(set);
+      expect(Object.keys(set).length).toBeGreaterThanOrEqual(10);
+    } finally {
+      server.close();
     }
   });
 });
