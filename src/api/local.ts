@@ -59,8 +59,12 @@ export const localResponse = z
   .meta({ id: 'LocalResponse' });
 export type LocalResponse = z.infer<typeof localResponse>;
 
-const finiteOrNull = (o: object): Record<string, number | null> =>
-  Object.fromEntries(Object.entries(o).map(([k, v]) => [k, Number.isFinite(v) ? (v as number) : null]));
+/** A copy of a record of numbers with every non-finite value as null (plain loop: runs per request). */
+function finiteOrNull(o: object): Record<string, number | null> {
+  const out: Record<string, number | null> = {};
+  for (const [k, v] of Object.entries(o)) out[k] = Number.isFinite(v) ? (v as number) : null;
+  return out;
+}
 
 const LOCAL_NOTE =
   'Rates are dτ/dt against far-away time, offsets 1 − rate without cancellation; flowSpeed is measured by the local ZAMO.';
@@ -69,9 +73,8 @@ export function computeLocal(input: LocalRequest): LocalResponse {
   const body = normalizeBody(input.body);
   const point = normalizePoint(input.point, body);
   const local = evaluateLocal(body.spacetime, point.rGeometric, point.theta, body.radiusGeometric ?? undefined);
-  const quantities = Object.fromEntries(
-    LOCAL_QUANTITIES.map((n) => [n, toQuantity(n, local.values[n], body, local.reasons[n])]),
-  );
+  const quantities: Record<string, ReturnType<typeof toQuantity>> = {};
+  for (const n of LOCAL_QUANTITIES) quantities[n] = toQuantity(n, local.values[n], body, local.reasons[n]);
   const notes = bodyNotes(body);
   notes.push(LOCAL_NOTE, CAUTION);
   return {
