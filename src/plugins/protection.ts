@@ -43,6 +43,32 @@ export function securityHeaders(options: Readonly<HelmetOptions>): Readonly<Reco
   return Object.freeze(headers);
 }
 
+/** Where the service serves HTML (the API browser and its assets): helmet's full default set. */
+const PAGES_PREFIX = '/docs';
+
+/**
+ * Helmet options for the JSON API: the headers the OWASP REST Security Cheat Sheet lists for API
+ * responses (section "Security Headers"; from memory) — a CSP that lets nothing load or frame the
+ * response, X-Frame-Options DENY, nosniff, HSTS — plus Referrer-Policy and Cross-Origin-Resource-Policy.
+ * The headers that only concern HTML documents (opener and origin-agent isolation, DNS prefetch,
+ * download options, cross-domain policies, the legacy XSS filter) are left to the pages, which keeps
+ * about 400 bytes off every JSON response.
+ */
+function apiHeaderOptions(crossOriginResourcePolicy: { policy: 'same-origin' | 'cross-origin' }): HelmetOptions {
+  return {
+    contentSecurityPolicy: { useDefaults: false, directives: { defaultSrc: ["'none'"], frameAncestors: ["'none'"] } },
+    crossOriginOpenerPolicy: false,
+    crossOriginResourcePolicy,
+    originAgentCluster: false,
+    referrerPolicy: { policy: 'no-referrer' },
+    xDnsPrefetchControl: false,
+    xDownloadOptions: false,
+    xFrameOptions: { action: 'deny' },
+    xPermittedCrossDomainPolicies: false,
+    xXssProtection: false,
+  };
+}
+
 /** Routes for probes and scrapers: never rate-limited, never shed (see above). */
 export const OPERATIONS_ROUTES: ReadonlySet<string> = new Set(['/healthz', '/readyz', '/metrics']);
 
@@ -77,14 +103,14 @@ const plugin: FastifyPluginAsync<ProtectionOptions> = async (app, options) => {
     throw new ProblemError('service-unavailable', 'the service is shutting down; retry on another instance or after the time given');
   });
 
-  // Security headers. The API answers JSON, so helmet's strict defaults fit; /docs sets its own CSP
+  // Security headers: the API set on JSON responses, helmet's defaults on the pages; /docs sets its own CSP
   // (swagger-ui's scripts and styles, by hash) through @fastify/swagger-ui's staticCSP. When CORS is
   // on, responses may be read by other origins, so Cross-Origin-Resource-Policy says so.
-  const headers = securityHeaders({
-    crossOriginResourcePolicy: { policy: options.corsOrigins.length > 0 ? 'cross-origin' : 'same-origin' },
-  });
-  app.addHook('onRequest', (_request, reply, done) => {
-    reply.headers(headers);
+  const resourcePolicy = { policy: options.corsOrigins.length > 0 ? ('cross-origin' as const) : ('same-origin' as const) };
+  const apiHeaders = securityHeaders(apiHeaderOptions(resourcePolicy));
+  const pageHeaders = securityHeaders({ crossOriginResourcePolicy: resourcePolicy });
+  app.addHook('onRequest', (request, reply, done) => {
+    reply.headers(request.url.startsWith(PAGES_PREFIX) ? pageHeaders : apiHeaders);
     done();
   });
 
