@@ -4,8 +4,17 @@
  */
 import { z } from 'zod';
 
-const port = z.coerce.number().int().min(0).max(65_535);
-const positiveInt = z.coerce.number().int().positive();
+/** The message for a value that is not a number at all; other issues keep their own messages. */
+const notANumber = (issue: { code?: string }) => (issue.code === 'invalid_type' ? 'must be a number' : undefined);
+const port = z.coerce
+  .number({ error: notANumber })
+  .int({ error: 'must be a whole number' })
+  .min(0, { error: 'must be a port number from 0 to 65535' })
+  .max(65_535, { error: 'must be a port number from 0 to 65535' });
+const positiveInt = z.coerce
+  .number({ error: notANumber })
+  .int({ error: 'must be a whole number' })
+  .positive({ error: 'must be positive' });
 /** Largest result-cache bound accepted: 16 GiB, beyond any heap a Node process is given. */
 const MAX_CACHE_BYTES = 16 * 1024 ** 3;
 

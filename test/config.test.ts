@@ -20,6 +20,11 @@ describe('configuration', () => {
   it('names each bad variable', () => {
     expect(() => loadConfig({ PORT: 'eighty' })).toThrow(ConfigError);
     expect(() => loadConfig({ PORT: '70000' })).toThrow(/PORT/);
+    // Each message says what is wrong in words and quotes the value given.
+    expect(() => loadConfig({ PORT: 'eighty' })).toThrow('PORT: must be a number (got "eighty")');
+    expect(() => loadConfig({ PORT: '70000' })).toThrow('PORT: must be a port number from 0 to 65535 (got "70000")');
+    expect(() => loadConfig({ BODY_LIMIT_BYTES: '0' })).toThrow('BODY_LIMIT_BYTES: must be positive (got "0")');
+    expect(() => loadConfig({ SWEEP_MAX_POINTS: '2.5' })).toThrow('SWEEP_MAX_POINTS: must be a whole number (got "2.5")');
     expect(() => loadConfig({ LOG_LEVEL: 'loud' })).toThrow(/LOG_LEVEL/);
   });
 
