@@ -74,7 +74,7 @@ export const geodesicRequest = z
       description: `Largest proper time (or affine parameter for light) to follow, e.g. "2000 tg" or seconds; default ${GEODESIC_LIMITS.defaultDuration} GM/c³, at most ${GEODESIC_LIMITS.maxDuration} GM/c³.`,
     }),
     samples: z.number().int().min(2).optional().meta({
-      description: `Samples evenly spaced in λ over [0, duration] (default ${GEODESIC_LIMITS.defaultSamples}, at most ${GEODESIC_LIMITS.maxSamples}: larger is a 413); the end point is added when the path ends earlier.`,
+      description: `Samples evenly spaced in λ over the path: over [0, duration], or over [0, λ_end] when an event (horizon, singularity, surface, escape) ends it earlier (default ${GEODESIC_LIMITS.defaultSamples}, at most ${GEODESIC_LIMITS.maxSamples}: larger is a 413); the end point may add one.`,
     }),
     maxSteps: z.number().int().min(1).optional().meta({
       description: `Largest number of accepted integration steps (default ${GEODESIC_LIMITS.defaultSteps}, at most ${GEODESIC_LIMITS.maxSteps}: larger is a 413).`,

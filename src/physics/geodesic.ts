@@ -48,8 +48,16 @@ export interface GeodesicRequest {
   start: GeodesicStart;
   /** Largest λ (proper time or affine parameter), > 0. */
   maxLength: number;
-  /** Number of evenly spaced samples over [0, maxLength] (≥ 2); the end point is added when earlier. */
+  /**
+   * Number of samples (≥ 2), evenly spaced in λ over the path: over [0, maxLength], or over [0, λ_end]
+   * when an event (horizon, singularity, surface, escape) ends the path earlier. The end point may add one.
+   */
   samples: number;
+  /**
+   * 'path' (default): samples over [0, λ_end] when an event ends the path early (a second pass, see
+   * geodesic); 'maxLength': always at the multiples of maxLength/(samples − 1), as in one pass.
+   */
+  sampleOver?: 'path' | 'maxLength';
   /** Relative tolerance of each step (absolute tolerance rtol·1e−3). Default 1e−10. */
   rtol?: number;
   /** Largest number of accepted steps (each may follow a few rejected tries). Default DEFAULT_MAX_STEPS. */
@@ -173,8 +181,35 @@ export function innerStopRadius(s: KerrNewman): number {
   return hz.inner + INNER_MARGIN * (hz.outer - hz.inner);
 }
 
-/** Integrates a geodesic; see the module comment. Inputs are assumed finite (the API checks them). */
+/**
+ * Integrates a geodesic; see the module comment. Inputs are assumed finite (the API checks them).
+ * When an event ends the path before maxLength, the samples would cover only the part of [0, maxLength]
+ * it lived through (a plunge from 10 M ends after ~20 M of proper time: 3 samples of 500 at the default
+ * spacing), so the path is integrated again up to its end, which reproduces the same steps (the
+ * integration is deterministic and only the last step is clipped), and sampled evenly over [0, λ_end].
+ * Everything but the samples comes from the first pass. A path stopped by its step limit or its
+ * tolerance keeps the samples of the first pass (a second pass would double the largest cost).
+ */
 export function geodesic(s: KerrNewman, req: GeodesicRequest): GeodesicResult {
+  const first = integrate(s, req);
+  if (req.sampleOver === 'maxLength' || !first.ok || first.termination === 'maxSteps' || first.termination === 'toleranceNotMet') return first;
+  if (!(first.length > 0 && first.length < req.maxLength) || first.samples.count >= req.samples) return first;
+  const again = integrate(s, { ...req, maxLength: first.length });
+  if (!again.ok) return first;
+  // The second pass locates the ending event on its own last step, a few ulps from the first pass's
+  // λ_end: its end point is replaced by the first pass's, so the samples end exactly where the path does.
+  const a = again.samples;
+  const f = first.samples;
+  const k = a.count - 1;
+  const j = f.count - 1;
+  for (const col of SAMPLE_COLUMNS) a[col][k] = f[col][j]!;
+  return { ...first, samples: a };
+}
+
+const SAMPLE_COLUMNS = ['lambda', 'v', 'river', 't', 'r', 'theta', 'phi', 'phiBL', 'x', 'y', 'z'] as const satisfies readonly Exclude<keyof GeodesicSamples, 'count'>[];
+
+/** One pass of the integration: samples evenly spaced over [0, req.maxLength]. */
+function integrate(s: KerrNewman, req: GeodesicRequest): GeodesicResult {
   const st = req.start;
   if (![st.r, st.theta, st.phi, req.maxLength].every(Number.isFinite) || !(st.r > 0) || !(req.maxLength > 0) || !(req.samples >= 2)) {
     return refuse('invalidInput', 'start', 'r, θ, φ and the maximum length must be finite, r and the length positive, and samples ≥ 2');

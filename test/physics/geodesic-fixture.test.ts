@@ -47,6 +47,8 @@ function run(c: OrbitCase, rtol: number): Geodesic {
       start: { kind: 'constants', r: c.r, theta: c.theta, phi: c.phi, E: c.E, L: c.L, carter: c.carter, radialSign: c.radialSign, polarSign: c.polarSign },
       maxLength: c.maxLength,
       samples: c.samples,
+      // The reference is sampled at multiples of maxLength/(samples − 1), also for the plunge.
+      sampleOver: 'maxLength',
       rtol,
       maxSteps: 1_000_000,
       ...(c.stopAtHorizon ? { stopAt: 'outerHorizon' as const } : {}),

@@ -269,3 +269,27 @@ describe('refusals, limits and statuses', () => {
     expect(g.termination).toBe('innerHorizon');
   });
 });
+
+describe('samples over the path actually travelled', () => {
+  it('a plunge that ends at the horizon early gets its samples evenly over [0, λ_end], the same path as one pass', () => {
+    const s = { a: 0.9, q: 0 };
+    const req = { particle: 'timelike' as const, start: launch('zamo', 10, Math.PI / 2, 0.3, (150 * Math.PI) / 180), maxLength: 2000, samples: 50, stopAt: 'outerHorizon' as const };
+    const g = ok(s, req);
+    const one = ok(s, { ...req, sampleOver: 'maxLength' });
+    expect(g.termination).toBe('outerHorizon');
+    expect(g.length).toBeLessThan(100);
+    expect(one.samples.count).toBeLessThan(10);
+    expect(g.samples.count).toBeGreaterThanOrEqual(50);
+    expect(g.samples.count).toBeLessThanOrEqual(51);
+    const n = g.samples.count;
+    expect(g.samples.lambda[n - 1]).toBe(g.length);
+    // Even spacing, and the second pass ends where the first did (same steps; only the last is clipped).
+    const spacing = g.length / 49;
+    for (let k = 1; k < 49; k++) expect(g.samples.lambda[k]! - g.samples.lambda[k - 1]!).toBeCloseTo(spacing, 9);
+    expect(Math.abs(g.samples.r[n - 1]! - one.samples.r[one.samples.count - 1]!)).toBeLessThan(1e-9);
+    expect(Math.abs(g.samples.v[n - 1]! - one.samples.v[one.samples.count - 1]!)).toBeLessThan(1e-9);
+    // Everything else comes from the first pass.
+    expect(g.events).toEqual(one.events);
+    expect(g.steps).toEqual(one.steps);
+  });
+});
