@@ -99,7 +99,10 @@ export function pointFunctions(s: KerrNewman, r: number, theta: number): PointFu
   const mu = 2 * r - q2;
   // Δ = r² + a² − μ; written so that it is exact at the horizon for representable inputs.
   const delta = rho2 - mu;
-  const bigA = rho2 * rho2 - a2 * delta * sin2;
+  // A = (r² + a²)² − a²Δ sin²θ, written as (r² + a²)Σ + a²μ sin²θ (the same, with Δ = r² + a² − μ):
+  // a sum of non-negative terms wherever μ ≥ 0, so no cancellation next to the ring, where the first
+  // form loses every digit.
+  const bigA = rho2 * sigma + a2 * mu * sin2;
   return { r, sin2, cos2, sigma, delta, bigA, mu, rho2, sincos: sn * cs };
 }
 

@@ -252,7 +252,7 @@ export function sweepLocal(
     const sigma = r * r + a2 * cos2;
     const mu = 2 * r - q2;
     const delta = rho2 - mu;
-    const bigA = rho2 * rho2 - a2 * delta * sin2;
+    const bigA = rho2 * sigma + a2 * mu * sin2;
 
     // region(), inline (the surface was checked by the domain pass).
     let region = OUTSIDE;

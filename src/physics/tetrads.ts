@@ -23,7 +23,7 @@
  * rest mass, so λ is proper time); a photon has p = u + n: its energy measured by the observer is 1, which
  * fixes the scale of its affine parameter (λ advances like the observer's clock at the launch).
  */
-import type { KerrNewman } from './spacetime.js';
+import { pointFunctions, type KerrNewman } from './spacetime.js';
 
 export type LaunchObserver = 'static' | 'zamo' | 'river';
 
@@ -40,12 +40,7 @@ export const TETRAD_REASONS: Record<TetradAbsenceReason, string> = {
 /** Covariant metric g_{μν} in (v, r, θ, φ̃), as a 4×4 row-major array. */
 export function ingoingMetric(s: KerrNewman, r: number, th: number): Float64Array {
   const a = s.a;
-  const sin2 = Math.sin(th) ** 2;
-  const sigma = r * r + a * a * Math.cos(th) ** 2;
-  const mu = 2 * r - s.q * s.q;
-  const rho2 = r * r + a * a;
-  const delta = rho2 - mu;
-  const bigA = rho2 * rho2 - a * a * delta * sin2;
+  const { sin2, sigma, mu, bigA } = pointFunctions(s, r, th);
   const g = new Float64Array(16);
   g[0] = -(1 - mu / sigma);
   g[1] = g[4] = 1;
@@ -59,10 +54,7 @@ export function ingoingMetric(s: KerrNewman, r: number, th: number): Float64Arra
 /** Contravariant metric g^{μν} in (v, r, θ, φ̃) (see ./geodesic-equations.ts). */
 export function ingoingInverseMetric(s: KerrNewman, r: number, th: number): Float64Array {
   const a = s.a;
-  const sin2 = Math.sin(th) ** 2;
-  const sigma = r * r + a * a * Math.cos(th) ** 2;
-  const rho2 = r * r + a * a;
-  const delta = rho2 - (2 * r - s.q * s.q);
+  const { sin2, sigma, rho2, delta } = pointFunctions(s, r, th);
   const h = new Float64Array(16);
   h[0] = (a * a * sin2) / sigma;
   h[1] = h[4] = rho2 / sigma;
@@ -112,7 +104,7 @@ export function observerTetrad(s: KerrNewman, observer: LaunchObserver, r: numbe
     if (!(g[0]! < 0)) return { ok: false, reason: 'insideErgosurface' };
     u = [1 / Math.sqrt(-g[0]!), 0, 0, 0];
   } else if (observer === 'zamo') {
-    const bigA = rho2 * rho2 - a * a * delta * sn * sn;
+    const bigA = pointFunctions(s, r, th).bigA;
     if (!(delta > 0 && bigA > 0)) return { ok: false, reason: 'insideHorizon' };
     const alpha = Math.sqrt((sigma * delta) / bigA);
     u = mul(ginv, [-alpha, (alpha * rho2) / delta, 0, 0]);

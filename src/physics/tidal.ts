@@ -36,7 +36,7 @@
  */
 import { eigs } from 'mathjs';
 import { contract, weylPsi2, type Complex, type Tensor4 } from './curvature.js';
-import { horizons, type KerrNewman } from './spacetime.js';
+import { horizons, pointFunctions, type KerrNewman } from './spacetime.js';
 
 export type TidalObserverKind = 'static' | 'zamo' | 'river';
 
@@ -63,15 +63,8 @@ interface FrameGeometry {
 }
 
 function geometry(s: KerrNewman, r: number, theta: number): FrameGeometry {
-  const sn = Math.sin(theta);
-  const cs = Math.cos(theta);
-  const a2 = s.a * s.a;
-  const rho2 = r * r + a2;
-  const sigma = r * r + a2 * cs * cs;
-  const mu = 2 * r - s.q * s.q;
-  // A = (r² + a²)² − a²Δ sin²θ written as (r² + a²)Σ + a²μ sin²θ: a sum of non-negative terms
-  // wherever μ ≥ 0, so no cancellation next to the ring (there the first form loses every digit).
-  return { sn, rho2, sigma, mu, delta: rho2 - mu, bigA: rho2 * sigma + a2 * mu * sn * sn };
+  const p = pointFunctions(s, r, theta);
+  return { sn: Math.sin(theta), rho2: p.rho2, sigma: p.sigma, mu: p.mu, delta: p.delta, bigA: p.bigA };
 }
 
 /** Why the observer `kind` cannot exist here, or null if it can. */

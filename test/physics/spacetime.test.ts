@@ -218,3 +218,15 @@ describe('weak fields keep full precision in the offsets', () => {
     expect(staticClockOffset(p) / 5e-21 - 1).toBeLessThan(1e-15);
   });
 });
+
+describe('A = (r² + a²)² − a²Δ sin²θ next to the ring', () => {
+  it('keeps full precision where the two terms of the textbook form cancel', () => {
+    // On the equator with q = 0, A = r⁴ + a²r² + 2a²r exactly; at r = 1e-8 the textbook form subtracts
+    // two numbers of size a⁴ ≈ 0.66 to leave ~1.6e-8 and would keep only ~8 digits.
+    const a = 0.9;
+    const r = 1e-8;
+    const exact = r ** 4 + a * a * r * r + 2 * a * a * r;
+    const p = pointFunctions({ a, q: 0 }, r, Math.PI / 2);
+    expect(Math.abs(p.bigA - exact) / exact).toBeLessThan(4 * Number.EPSILON);
+  });
+});
