@@ -13,12 +13,20 @@ import { service } from './api/responses.js';
 import { registerComputeRoute } from './api/route.js';
 import { registerSweepRoute } from './api/sweep-route.js';
 import { resultCachePlugin } from './cache/plugin.js';
+import { RequestAliases } from './cache/request-aliases.js';
 import { defaultConfig, type Config } from './config.js';
 import { installErrorHandling, problemBody, sendProblem } from './error-handler.js';
 import { PROBLEMS, problemTypeUri, type ProblemCode } from './errors.js';
 import { healthPlugin } from './plugins/health.js';
 import { metricsPlugin } from './plugins/metrics.js';
 import { protectionPlugin } from './plugins/protection.js';
+
+declare module 'fastify' {
+  interface FastifyRequest {
+    /** The JSON body as received (before parsing); undefined for requests without one. */
+    rawBody?: string;
+  }
+}
 
 export interface AppOptions {
   /**
@@ -57,6 +65,14 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
 
   // JSON only: without this, fastify's text/plain parser would hand a string to the schemas.
   app.removeContentTypeParser('text/plain');
+  // JSON bodies are read as text, kept on the request for request aliasing (cache/request-aliases.ts)
+  // and parsed by fastify's own JSON parser (secure-json-parse; __proto__ and constructor refused).
+  const parseJson = app.getDefaultJsonParser('error', 'error');
+  app.removeContentTypeParser('application/json');
+  app.addContentTypeParser('application/json', { parseAs: 'string' }, (request, body, done) => {
+    request.rawBody = body as string;
+    parseJson(request, body as string, done);
+  });
   app.addHook('onRequest', (request, reply, done) => {
     reply.header('x-request-id', request.id);
     done();
@@ -91,7 +107,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     ...(options.pressureSampleIntervalMs ? { sampleIntervalMs: options.pressureSampleIntervalMs } : {}),
   });
   await app.register(healthPlugin, { retryAfterSeconds: config.RETRY_AFTER_S });
-  for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route, app.resultCache);
+  // One alias table for every compute route (request texts start with the path, so they never collide).
+  const aliases = new RequestAliases();
+  for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route, app.resultCache, aliases);
   registerSweepRoute(app, config.SWEEP_MAX_POINTS, app.resultCache);
   registerQuantities(app);
 

@@ -9,9 +9,10 @@
 import fastJson from 'fast-json-stringify';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { z } from 'zod';
-import type { CoalescingCache } from '../cache/coalesce.js';
+import type { CacheStatus, CoalescingCache } from '../cache/coalesce.js';
 import { CACHE_STATUS_HEADER, etagFor, GET_CACHE_CONTROL, ifNoneMatchMatches, JSON_CONTENT_TYPE, POST_CACHE_CONTROL } from '../cache/http.js';
 import { cacheKey } from '../cache/key.js';
+import { requestText, type RequestAliases } from '../cache/request-aliases.js';
 import type { CacheEntry } from '../cache/types.js';
 import { ProblemError, type FieldError } from '../errors.js';
 import { VERSION } from '../version.js';
@@ -99,43 +100,77 @@ export function responseSchema(route: ComputeRoute<unknown, unknown>): Record<st
 
 /**
  * Registers the route's POST (and GET) handlers, answering through the result cache. Both methods
- * build the same POST-shaped input, hence the same key: they share cache entries and ETags.
+ * build the same POST-shaped input, hence the same key: they share cache entries and ETags. With
+ * `aliases` and an in-memory store, a byte-identical repeat of an answered request is served from the
+ * store before validation (cache/request-aliases.ts says why that is safe).
  */
-export function registerComputeRoute<TIn, TQuery>(app: FastifyInstance, route: ComputeRoute<TIn, TQuery>, cache: CoalescingCache): void {
+export function registerComputeRoute<TIn, TQuery>(
+  app: FastifyInstance,
+  route: ComputeRoute<TIn, TQuery>,
+  cache: CoalescingCache,
+  aliases?: RequestAliases,
+): void {
   const serialize: (doc: unknown) => string =
     route.serializer === 'json' ? (doc) => JSON.stringify(doc) : fastJson(responseSchema(route as ComputeRoute<unknown, unknown>));
   const canonical = route.canonical ?? ((input: TIn): unknown => input);
+  const aliasTable = aliases !== undefined && cache.canPeek ? aliases : undefined;
 
-  /** Key, 304 if the client holds this result, else the cached or freshly computed body. */
-  const respond = async (input: TIn, request: FastifyRequest, reply: FastifyReply, cacheControl: string): Promise<FastifyReply> => {
-    const key = cacheKey(VERSION, route.path, canonical(input));
-    const etag = etagFor(key);
-    if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) {
-      return reply.code(304).header('etag', etag).header('cache-control', cacheControl).send();
-    }
-    const { entry, status } = await cache.resolveWithStatus(
-      key,
-      (): CacheEntry => ({ body: serialize(route.compute(input)), contentType: JSON_CONTENT_TYPE, etag }),
-    );
-    // Headers only on success: a problem response carries neither the ETag nor Cache-Control.
-    return reply
+  const notModified = (reply: FastifyReply, etag: string, cacheControl: string): FastifyReply =>
+    reply.code(304).header('etag', etag).header('cache-control', cacheControl).send();
+  // Headers only on success: a problem response carries neither the ETag nor Cache-Control.
+  const sendEntry = (reply: FastifyReply, entry: CacheEntry, status: CacheStatus, cacheControl: string): FastifyReply =>
+    reply
       .header('etag', entry.etag)
       .header('cache-control', cacheControl)
       .header(CACHE_STATUS_HEADER, status)
       .header('content-type', entry.contentType)
       .send(entry.body);
+
+  /** The answer to a repeat of an answered request, straight from the store; undefined otherwise. */
+  const fromAlias = (text: string | undefined, request: FastifyRequest, reply: FastifyReply, cacheControl: string): FastifyReply | undefined => {
+    const key = text === undefined ? undefined : aliasTable?.keyFor(text);
+    if (key === undefined) return undefined;
+    const etag = etagFor(key);
+    if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) return notModified(reply, etag, cacheControl);
+    const entry = cache.peek(key);
+    return entry === undefined ? undefined : sendEntry(reply, entry, 'hit', cacheControl);
+  };
+
+  /** Key, 304 if the client holds this result, else the cached or freshly computed body. */
+  const respond = async (
+    input: TIn,
+    request: FastifyRequest,
+    reply: FastifyReply,
+    cacheControl: string,
+    text: string | undefined,
+  ): Promise<FastifyReply> => {
+    const key = cacheKey(VERSION, route.path, canonical(input));
+    const etag = etagFor(key);
+    if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) return notModified(reply, etag, cacheControl);
+    const { entry, status } = await cache.resolveWithStatus(
+      key,
+      (): CacheEntry => ({ body: serialize(route.compute(input)), contentType: JSON_CONTENT_TYPE, etag }),
+    );
+    if (text !== undefined) aliasTable?.record(text, key);
+    return sendEntry(reply, entry, status, cacheControl);
   };
 
   app.post(route.path, async (request: FastifyRequest, reply: FastifyReply) => {
+    const text = aliasTable ? requestText('POST', request.url, request.rawBody) : undefined;
+    const repeat = fromAlias(text, request, reply, POST_CACHE_CONTROL);
+    if (repeat) return repeat;
     const input = parseOr400(route.body, request.body);
-    return respond(input, request, reply, POST_CACHE_CONTROL);
+    return respond(input, request, reply, POST_CACHE_CONTROL, text);
   });
   const get = route.get;
   if (get) {
     app.get(route.path, async (request: FastifyRequest, reply: FastifyReply) => {
+      const text = aliasTable ? requestText(request.method, request.url, undefined) : undefined;
+      const repeat = fromAlias(text, request, reply, GET_CACHE_CONTROL);
+      if (repeat) return repeat;
       try {
         const query = parseOr400(get.query, request.query ?? {});
-        return await respond(get.toInput(query), request, reply, GET_CACHE_CONTROL);
+        return await respond(get.toInput(query), request, reply, GET_CACHE_CONTROL, text);
       } catch (err) {
         throw remapPaths(err, get.pathFor);
       }

@@ -71,6 +71,16 @@ export class CoalescingCache implements ResultCache {
     return { entry, status: 'miss' };
   }
 
+  /** Whether the store has a synchronous lookup (the in-memory LRU does; see ResultCache.peek). */
+  get canPeek(): boolean {
+    return this.store.peek !== undefined;
+  }
+
+  /** The store's synchronous lookup; undefined when it has none or holds nothing under key. */
+  peek(key: string): CacheEntry | undefined {
+    return this.store.peek?.(key);
+  }
+
   /** Reads the store directly (no coalescing). */
   get(key: string): Promise<CacheEntry | undefined> {
     return this.store.get(key);

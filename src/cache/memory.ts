@@ -47,6 +47,13 @@ export class MemoryCache implements ResultCache {
     return Promise.resolve(entry);
   }
 
+  /** The entry under key (marked most recently used, counted as a hit), or undefined, counting nothing. */
+  peek(key: string): CacheEntry | undefined {
+    const entry = this.lru.get(key);
+    if (entry !== undefined) this.hits += 1;
+    return entry;
+  }
+
   /** Stores the entry, evicting the least recently used ones until the total fits in maxBytes. */
   set(key: string, entry: CacheEntry): Promise<void> {
     this.lru.set(key, entry);

@@ -55,6 +55,12 @@ export interface CacheHealth {
 export interface ResultCache {
   /** The entry under key, or undefined; counts a hit or a miss. */
   get(key: string): Promise<CacheEntry | undefined>;
+  /**
+   * Synchronous lookup, offered only by a store in this process's memory: the entry under key
+   * (counted as a hit) or undefined (counted as nothing — the caller then takes the full path, whose
+   * get() counts the miss). Request aliasing (request-aliases.ts) uses it.
+   */
+  peek?(key: string): CacheEntry | undefined;
   /** Stores the entry under key (a store may decline, e.g. an entry larger than its bound). */
   set(key: string, entry: CacheEntry): Promise<void>;
   /** Current counters and sizes. */

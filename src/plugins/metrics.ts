@@ -95,10 +95,11 @@ const plugin: FastifyPluginAsync<MetricsOptions> = async (app, options) => {
   });
 
   app.decorate('metrics', registry);
-  app.addHook('onResponse', async (request, reply) => {
+  app.addHook('onResponse', (request, reply, done) => {
     const labels = { method: request.method, route: routeLabel(request), status: String(reply.statusCode) };
     requests.inc(labels);
     latency.observe(labels, reply.elapsedTime / 1000);
+    done();
   });
   app.addHook('onClose', async () => registry.clear());
 

@@ -97,10 +97,11 @@ const plugin: FastifyPluginAsync<ProtectionOptions> = async (app, options) => {
   app.addHook('preClose', async () => {
     draining = true;
   });
-  app.addHook('onRequest', async (request, reply) => {
-    if (!draining) return;
+  // Callback style, not async: a hook on every request should not cost a promise.
+  app.addHook('onRequest', (_request, reply, done) => {
+    if (!draining) return done();
     reply.header('connection', 'close');
-    throw new ProblemError('service-unavailable', 'the service is shutting down; retry on another instance or after the time given');
+    done(new ProblemError('service-unavailable', 'the service is shutting down; retry on another instance or after the time given'));
   });
 
   // Security headers: the API set on JSON responses, helmet's defaults on the pages; /docs sets its own CSP
