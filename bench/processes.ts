@@ -9,12 +9,17 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
 import autocannon from 'autocannon';
+import { median } from './timing.js';
 
 export const HOST = '127.0.0.1';
 export const CONNECTIONS = 50;
 
 /** Which server a case runs against. */
-export type Target = 'bareTiny' | 'barePayload' | 'barePayloadPost' | 'service' | 'serviceCached';
+/**
+ * Which server a case runs against: a bare fastify route, the service as the README starts it
+ * (default in-memory result cache), or the service with the cache off (every request computed).
+ */
+export type Target = 'bareTiny' | 'barePayload' | 'barePayloadPost' | 'service' | 'serviceComputed';
 
 /** One benchmark case: a request repeated by every connection. */
 export interface BenchCase {
@@ -37,12 +42,26 @@ export interface BenchCase {
   goal?: { relativeTo: BenchCase; atLeast: number; statement: string };
 }
 
-export interface Measurement {
+/** One autocannon run of a case. */
+export interface Run {
   requestsPerSecond: number;
-  /** Latency percentiles of 2xx responses, ms, from per-response timings (autocannon's own are whole ms). */
+  /** Per-response times of 2xx responses, ms (autocannon's own histogram has whole ms only). */
+  times: Float64Array;
+  /** Connection errors and timeouts. */
+  errors: number;
+  non2xx: number;
+}
+
+/** A case over several rounds: the rounds' throughputs, and latencies pooled over every round. */
+export interface Measurement {
+  /** Median over the rounds. */
+  requestsPerSecond: number;
+  /** Each round's requests per second, in round order (ratios are taken round by round). */
+  perRound: number[];
+  /** Latency percentiles of the 2xx responses of all rounds together, ms. */
   p50: number;
   p99: number;
-  /** Connection errors and timeouts. */
+  /** Connection errors and timeouts, all rounds. */
   errors: number;
   non2xx: number;
 }
@@ -229,8 +248,7 @@ function percentile(sorted: Float64Array, q: number): number {
 }
 
 /** Runs autocannon against `server` with a warm-up first; `seconds` is the measured duration. */
-export async function measure(server: Server, c: BenchCase, seconds: number, warmupSeconds: number): Promise<Measurement> {
-  // Per-response times (ms, sub-ms resolution), 2xx only as in autocannon's own histogram.
+export async function measure(server: Server, c: BenchCase, seconds: number, warmupSeconds: number): Promise<Run> {
   // Capacity is bounded; past it the sample is the first `capacity` responses.
   const capacity = Math.min(20_000_000, Math.max(100_000, 200_000 * seconds));
   let times = new Float64Array(Math.min(capacity, 1_000_000));
@@ -255,12 +273,30 @@ export async function measure(server: Server, c: BenchCase, seconds: number, war
     times[count++] = responseTime;
   });
   const result = await instance;
-  const sorted = times.subarray(0, count).sort();
   return {
     requestsPerSecond: result.requests.total / result.duration,
-    p50: percentile(sorted, 0.5),
-    p99: percentile(sorted, 0.99),
+    times: times.slice(0, count),
     errors: result.errors,
     non2xx: result.non2xx,
+  };
+}
+
+/** One case's rounds summarised: median throughput, the rounds' throughputs, pooled latency percentiles. */
+export function combineRuns(runs: readonly Run[]): Measurement {
+  const pooled = new Float64Array(runs.reduce((n, r) => n + r.times.length, 0));
+  let offset = 0;
+  for (const r of runs) {
+    pooled.set(r.times, offset);
+    offset += r.times.length;
+  }
+  pooled.sort();
+  const perRound = runs.map((r) => r.requestsPerSecond);
+  return {
+    requestsPerSecond: median(perRound),
+    perRound,
+    p50: percentile(pooled, 0.5),
+    p99: percentile(pooled, 0.99),
+    errors: runs.reduce((n, r) => n + r.errors, 0),
+    non2xx: runs.reduce((n, r) => n + r.non2xx, 0),
   };
 }

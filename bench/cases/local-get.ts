@@ -1,4 +1,8 @@
-/** GET /v1/local for a spinning black hole: 10 solar masses, a/M = 0.9, at r = 6 GM/c². */
+/**
+ * GET /v1/local for a spinning black hole: 10 solar masses, a/M = 0.9, at r = 6 GM/c², against the
+ * service as the README starts it (default in-memory result cache): after the first request, each
+ * repeat is answered from the cache. One of the two rows that carry the /v1/local target.
+ */
 import type { BenchCase } from '../processes.js';
 
 const localGet: BenchCase = {

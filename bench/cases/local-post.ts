@@ -1,4 +1,4 @@
-/** POST /v1/local with the same body and point as local-get.ts, as a JSON body. */
+/** POST /v1/local with the same body and point as local-get.ts, as a JSON body (service as deployed, like local-get.ts). */
 import type { BenchCase } from '../processes.js';
 
 const localPost: BenchCase = {

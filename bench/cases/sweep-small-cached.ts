@@ -1,13 +1,13 @@
 /**
  * A small sweep (flow speed, clock rate and hover acceleration over 20 radii × 10 spins) repeated
- * against the service with its default result cache: the cached-sweep row of the HTTP table, read
+ * against the service as deployed (default result cache): the cached-sweep row of the HTTP table, read
  * against the bare fastify route.
  */
 import type { BenchCase } from '../processes.js';
 
 const sweepSmallCached: BenchCase = {
   name: 'POST /v1/sweep, 200 points (cached)',
-  target: 'serviceCached',
+  target: 'service',
   method: 'POST',
   path: '/v1/sweep',
   headers: { 'content-type': 'application/json' },

@@ -130,8 +130,11 @@ export function registerComputeRoute<TIn, TQuery>(
   const fromAlias = (text: string | undefined, request: FastifyRequest, reply: FastifyReply, cacheControl: string): FastifyReply | undefined => {
     const key = text === undefined ? undefined : aliasTable?.keyFor(text);
     if (key === undefined) return undefined;
-    const etag = etagFor(key);
-    if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) return notModified(reply, etag, cacheControl);
+    const ifNoneMatch = request.headers['if-none-match'];
+    if (ifNoneMatch !== undefined) {
+      const etag = etagFor(key);
+      if (ifNoneMatchMatches(ifNoneMatch, etag)) return notModified(reply, etag, cacheControl);
+    }
     const entry = cache.peek(key);
     return entry === undefined ? undefined : sendEntry(reply, entry, 'hit', cacheControl);
   };
