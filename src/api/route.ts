@@ -124,7 +124,7 @@ export function registerComputeRoute<TIn, TQuery>(
       .header('cache-control', cacheControl)
       .header(CACHE_STATUS_HEADER, status)
       .header('content-type', entry.contentType)
-      .send(entry.body);
+      .send(entry.bytes ?? entry.body);
 
   /** The answer to a repeat of an answered request, straight from the store; undefined otherwise. */
   const fromAlias = (text: string | undefined, request: FastifyRequest, reply: FastifyReply, cacheControl: string): FastifyReply | undefined => {

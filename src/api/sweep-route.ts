@@ -48,7 +48,8 @@ export function prefersCsv(accept: string | undefined): boolean {
 }
 
 /**
- * The bytes of the last cached document this route sent, kept with its entry: an identical repeat
+ * The bytes of a cached document to send: the entry's own when the store keeps bytes (the in-memory
+ * store), else those of the last document this route sent, kept with its entry: an identical repeat
  * (the common case: a client asking the same sweep again) is sent without copying 1e6 numbers again.
  * One slot, so it holds at most one extra copy of one document. The document is ASCII
  * (sweepJsonChunks), so latin1 copies it byte for byte: a few ms for 1e6 points, where writing the
@@ -59,6 +60,7 @@ class LastSent {
   private bytes: Buffer | null = null;
 
   bytesOf(entry: CacheEntry): Buffer {
+    if (entry.bytes) return entry.bytes; // the in-memory store keeps them
     if (this.entry !== entry || this.bytes === null) {
       this.bytes = Buffer.from(entry.body, 'latin1');
       this.entry = entry;
@@ -89,7 +91,7 @@ export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWE
       }
       reply.header('etag', csvEtag).header('cache-control', POST_CACHE_CONTROL).type(CSV_CONTENT_TYPE);
       const hit = cache ? await cache.get(csvKey).catch(() => undefined) : undefined;
-      if (hit) return reply.header(CACHE_STATUS_HEADER, 'hit').send(hit.body);
+      if (hit) return reply.header(CACHE_STATUS_HEADER, 'hit').send(hit.bytes ?? hit.body);
       reply.header(CACHE_STATUS_HEADER, 'miss');
       const prepared = prepareSweep(validated, maxPoints);
       const columns = computeSweepColumns(prepared);

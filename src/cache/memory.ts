@@ -12,12 +12,28 @@ import type { CacheEntry, CacheHealth, CacheStats, ResultCache } from './types.j
 export const ENTRY_OVERHEAD_BYTES = 128;
 
 /**
- * The size charged for one entry: the UTF-8 bytes of the body (what goes on the wire), plus the key,
- * ETag and content type, plus ENTRY_OVERHEAD_BYTES. V8 holds a string with characters beyond Latin-1
- * in two bytes per character, so the heap may hold up to about twice this for such bodies.
+ * The size charged for one entry: the UTF-8 bytes of the body (what goes on the wire, and what the
+ * store holds: see StoredEntry), plus the key, ETag and content type, plus ENTRY_OVERHEAD_BYTES.
  */
 export function entrySize(key: string, entry: CacheEntry): number {
-  return Buffer.byteLength(entry.body, 'utf8') + key.length + entry.etag.length + entry.contentType.length + ENTRY_OVERHEAD_BYTES;
+  const body = entry.bytes ? entry.bytes.length : Buffer.byteLength(entry.body, 'utf8');
+  return body + key.length + entry.etag.length + entry.contentType.length + ENTRY_OVERHEAD_BYTES;
+}
+
+/**
+ * An entry as the in-memory store holds it: the body as UTF-8 bytes only (sent as they are on a hit;
+ * half the heap of a string with characters beyond Latin-1), the string decoded when asked for.
+ */
+class StoredEntry implements CacheEntry {
+  constructor(
+    readonly bytes: Buffer,
+    readonly contentType: string,
+    readonly etag: string,
+  ) {}
+
+  get body(): string {
+    return this.bytes.toString('utf8');
+  }
 }
 
 /** In-memory LRU over at most maxBytes (entrySize each); counts hits, misses and evictions. */
@@ -56,7 +72,7 @@ export class MemoryCache implements ResultCache {
 
   /** Stores the entry, evicting the least recently used ones until the total fits in maxBytes. */
   set(key: string, entry: CacheEntry): Promise<void> {
-    this.lru.set(key, entry);
+    this.lru.set(key, new StoredEntry(entry.bytes ?? Buffer.from(entry.body, 'utf8'), entry.contentType, entry.etag));
     return Promise.resolve();
   }
 

@@ -12,6 +12,11 @@ export interface CacheEntry {
   contentType: string;
   /** The strong ETag, quoted (`"<hex>"`). */
   etag: string;
+  /**
+   * The body as UTF-8 bytes, when the store keeps it so: the in-memory store does, so a hit is
+   * written to the socket as is instead of being encoded from a string on every response.
+   */
+  readonly bytes?: Buffer;
 }
 
 /**

@@ -54,13 +54,26 @@ describe('MemoryCache', () => {
     expect(cache.stats().evictions).toBe(1);
   });
 
-  it('counts hits and misses and returns the stored entry unchanged', async () => {
+  it('keeps a body with characters beyond ASCII exactly, and charges its UTF-8 bytes', async () => {
+    const cache = new MemoryCache(1 << 20);
+    const e: CacheEntry = { body: '{"note":"θ from the spin axis; 1 − rate; τ ≈ 2⁻¹"}', contentType: 'application/json; charset=utf-8', etag: '"u"' };
+    await cache.set(key(2), e);
+    const got = await cache.get(key(2));
+    expect(got?.body).toBe(e.body);
+    expect(got?.bytes?.length).toBe(Buffer.byteLength(e.body, 'utf8'));
+    expect(cache.stats().bytes).toBe(entrySize(key(2), e));
+  });
+
+  it('counts hits and misses and returns the stored entry unchanged, with its UTF-8 bytes', async () => {
     const cache = new MemoryCache(1 << 20);
     const e = entry(50);
     expect(await cache.get(key(1))).toBeUndefined();
     await cache.set(key(1), e);
-    expect(await cache.get(key(1))).toBe(e);
-    expect(await cache.get(key(1))).toBe(e);
+    for (let i = 0; i < 2; i++) {
+      const got = await cache.get(key(1));
+      expect({ body: got?.body, contentType: got?.contentType, etag: got?.etag }).toEqual(e);
+      expect(got?.bytes?.equals(Buffer.from(e.body, 'utf8'))).toBe(true);
+    }
     expect(cache.stats()).toEqual({
       hits: 2,
       misses: 1,
