@@ -20,6 +20,21 @@ export function stableStringify(value: unknown): string {
   return write(value, 0);
 }
 
+/** Record keys as JSON strings, remembered: keys come from the schemas' small set of field names. */
+const QUOTED_KEYS = new Map<string, string>();
+const MAX_QUOTED_KEYS = 4096;
+
+function quotedKey(k: string): string {
+  let quoted = QUOTED_KEYS.get(k);
+  if (quoted === undefined) {
+    quoted = JSON.stringify(k);
+    // Bounded: a strict schema admits only its own field names, but a route without canonical()
+    // keys its validated input as is, so the table must not grow with what clients send.
+    if (QUOTED_KEYS.size < MAX_QUOTED_KEYS && k.length <= 64) QUOTED_KEYS.set(k, quoted);
+  }
+  return quoted;
+}
+
 function write(v: unknown, depth: number): string {
   switch (typeof v) {
     case 'number':
@@ -45,7 +60,7 @@ function write(v: unknown, depth: number): string {
       for (const k of keys) {
         const x = record[k];
         if (x === undefined) continue;
-        out += (first ? '' : ',') + JSON.stringify(k) + ':' + write(x, depth + 1);
+        out += (first ? '' : ',') + quotedKey(k) + ':' + write(x, depth + 1);
         first = false;
       }
       return out + '}';
