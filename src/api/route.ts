@@ -113,7 +113,7 @@ export function registerComputeRoute<TIn, TQuery>(
   const serialize: (doc: unknown) => string =
     route.serializer === 'json' ? (doc) => JSON.stringify(doc) : fastJson(responseSchema(route as ComputeRoute<unknown, unknown>));
   const canonical = route.canonical ?? ((input: TIn): unknown => input);
-  const aliasTable = aliases !== undefined && cache.canPeek ? aliases : undefined;
+  const aliasTable = aliases !== undefined && cache.keepsEntriesHere ? aliases : undefined;
 
   const notModified = (reply: FastifyReply, etag: string, cacheControl: string): FastifyReply =>
     reply.code(304).header('etag', etag).header('cache-control', cacheControl).send();
@@ -150,10 +150,9 @@ export function registerComputeRoute<TIn, TQuery>(
     const key = cacheKey(VERSION, route.path, canonical(input));
     const etag = etagFor(key);
     if (ifNoneMatchMatches(request.headers['if-none-match'], etag)) return notModified(reply, etag, cacheControl);
-    const { entry, status } = await cache.resolveWithStatus(
-      key,
-      (): CacheEntry => ({ body: serialize(route.compute(input)), contentType: JSON_CONTENT_TYPE, etag }),
-    );
+    const produce = (): CacheEntry => ({ body: serialize(route.compute(input)), contentType: JSON_CONTENT_TYPE, etag });
+    const resolved = cache.resolveNow(key, produce);
+    const { entry, status } = resolved instanceof Promise ? await resolved : resolved;
     if (text !== undefined) aliasTable?.record(text, key);
     return sendEntry(reply, entry, status, cacheControl);
   };

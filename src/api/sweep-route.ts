@@ -114,7 +114,7 @@ export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWE
       const prepared = prepareSweep(validated, maxPoints);
       return { body: sweepJson(prepared, computeSweepColumns(prepared)), contentType: JSON_CONTENT_TYPE, etag };
     };
-    const { entry, status } = cache ? await cache.resolveWithStatus(key, produce) : { entry: produce(), status: 'miss' };
+    const { entry, status } = cache ? await cache.resolveNow(key, produce) : { entry: produce(), status: 'miss' as const };
     return reply
       .header('etag', entry.etag)
       .header(CACHE_STATUS_HEADER, status)

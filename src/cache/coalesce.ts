@@ -1,6 +1,8 @@
 /**
  * The front every compute route talks to: identical requests that arrive together share one lookup
- * (and, on a miss, one computation), whatever store sits behind it.
+ * (and, on a miss, one computation), whatever store sits behind it. With a store in this process
+ * (resolveNow) a lookup and computation finish in one turn of the event loop, so there is never
+ * anything in flight to share and no promise is made.
  */
 import type { CacheEntry, CacheHealth, CacheStats, ResultCache } from './types.js';
 
@@ -71,14 +73,35 @@ export class CoalescingCache implements ResultCache {
     return { entry, status: 'miss' };
   }
 
-  /** Whether the store has a synchronous lookup (the in-memory LRU does; see ResultCache.peek). */
+  /** Whether the store has a synchronous lookup (the in-memory LRU and the switched-off store). */
   get canPeek(): boolean {
     return this.store.peek !== undefined;
   }
 
-  /** The store's synchronous lookup; undefined when it has none or holds nothing under key. */
+  /** Whether the store keeps entries in this process (request aliasing pays only then). */
+  get keepsEntriesHere(): boolean {
+    return this.store.peek !== undefined && this.store.health().backend === 'memory';
+  }
+
+  /** The store's synchronous lookup without counting a miss; undefined when it has none or holds nothing. */
   peek(key: string): CacheEntry | undefined {
-    return this.store.peek?.(key);
+    return this.store.peek?.(key, false);
+  }
+
+  /**
+   * For a store with a synchronous lookup (canPeek): the stored entry, or `produce`'s, stored — all in
+   * this turn of the event loop, with no promise. Nothing can coalesce here: a lookup and computation
+   * that finish in one turn never overlap another request's. Falls back to resolveWithStatus for
+   * other stores.
+   */
+  resolveNow(key: string, produce: () => CacheEntry): Resolved | Promise<Resolved> {
+    const store = this.store;
+    if (store.peek === undefined) return this.resolveWithStatus(key, produce);
+    const hit = store.peek(key, true);
+    if (hit !== undefined) return { entry: hit, status: 'hit' };
+    const entry = produce();
+    store.set(key, entry).catch(() => undefined); // completes at once; an unwritable store only costs a recomputation
+    return { entry, status: 'miss' };
   }
 
   /** Reads the store directly (no coalescing). */

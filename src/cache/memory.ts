@@ -63,10 +63,11 @@ export class MemoryCache implements ResultCache {
     return Promise.resolve(entry);
   }
 
-  /** The entry under key (marked most recently used, counted as a hit), or undefined, counting nothing. */
-  peek(key: string): CacheEntry | undefined {
+  /** The entry under key (marked most recently used), counting a hit, or a miss when countMiss. */
+  peek(key: string, countMiss = false): CacheEntry | undefined {
     const entry = this.lru.get(key);
     if (entry !== undefined) this.hits += 1;
+    else if (countMiss) this.misses += 1;
     return entry;
   }
 
@@ -109,6 +110,12 @@ export class DisabledCache implements ResultCache {
   get(_key: string): Promise<CacheEntry | undefined> {
     this.misses += 1;
     return Promise.resolve(undefined);
+  }
+
+  /** Always a miss (counted when countMiss). */
+  peek(_key: string, countMiss = false): CacheEntry | undefined {
+    if (countMiss) this.misses += 1;
+    return undefined;
   }
 
   /** Keeps nothing. */

@@ -30,7 +30,7 @@ export interface RedisStoreOptions {
 }
 
 export interface ResultCacheOptions {
-  /** Bound of the in-memory LRU in bytes; 0 keeps nothing (coalescing and HTTP caching remain). */
+  /** Bound of the in-memory LRU in bytes; 0 keeps nothing (ETags and 304 remain). */
   maxBytes: number;
   /** When given, Redis is the store instead of the in-memory LRU. */
   redis?: RedisStoreOptions;

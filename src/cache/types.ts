@@ -61,11 +61,12 @@ export interface ResultCache {
   /** The entry under key, or undefined; counts a hit or a miss. */
   get(key: string): Promise<CacheEntry | undefined>;
   /**
-   * Synchronous lookup, offered only by a store in this process's memory: the entry under key
-   * (counted as a hit) or undefined (counted as nothing — the caller then takes the full path, whose
-   * get() counts the miss). Request aliasing (request-aliases.ts) uses it.
+   * Synchronous lookup, offered only by a store in this process (the in-memory LRU and the
+   * switched-off store), whose set() also completes at once: the entry under key or undefined. Counts
+   * a hit, and a miss only when `countMiss` (request aliasing peeks without counting: on a miss it
+   * takes the full path, which counts it).
    */
-  peek?(key: string): CacheEntry | undefined;
+  peek?(key: string, countMiss?: boolean): CacheEntry | undefined;
   /** Stores the entry under key (a store may decline, e.g. an entry larger than its bound). */
   set(key: string, entry: CacheEntry): Promise<void>;
   /** Current counters and sizes. */

@@ -258,6 +258,9 @@ describe('every route keys on its normalised request', () => {
 });
 
 describe('request coalescing', () => {
+  // With the in-memory store the first request's lookup, computation and store finish in one turn of
+  // the event loop, so the other nineteen find the entry stored (hits). Joining a computation still in
+  // flight (coalesced) happens with an asynchronous store: test/cache/coalesce.test.ts and the Redis tests.
   it('twenty identical requests at once are computed once', async () => {
     const app = await fresh();
     try {
@@ -270,7 +273,7 @@ describe('request coalescing', () => {
       const s = app.resultCache.stats();
       expect(s.misses).toBe(1);
       expect(s.hits + s.misses + s.coalesced).toBe(20);
-      expect(s.coalesced).toBeGreaterThan(0);
+      expect(s.hits).toBe(19);
     } finally {
       await app.close();
     }

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it, vi } from 'vitest';
 import { CoalescingCache } from '../../src/cache/coalesce.js';
-import { MemoryCache } from '../../src/cache/memory.js';
+import { createResultCache, MemoryCache } from '../../src/cache/memory.js';
 import type { CacheEntry, CacheHealth, CacheStats, ResultCache } from '../../src/cache/types.js';
 
 const entry = (body: string): CacheEntry => ({ body, contentType: 'application/json; charset=utf-8', etag: '"k"' });
@@ -113,5 +113,52 @@ describe('CoalescingCache.resolveWithStatus (the x-cache header)', () => {
     const later = await cache.resolveWithStatus('k', () => entry('{"x":3}'));
     expect(later.status).toBe('hit');
     expect({ body: later.entry.body, contentType: later.entry.contentType, etag: later.entry.etag }).toEqual(entry('{"x":1}'));
+  });
+});
+
+describe('CoalescingCache.resolveNow (stores with a synchronous lookup)', () => {
+  it('in-memory store: a miss computed and stored, then hits, with no promise and correct counts', () => {
+    const cache = new CoalescingCache(new MemoryCache(1 << 20));
+    const produce = vi.fn(() => entry('{"x":2}'));
+    const first = cache.resolveNow('k', produce);
+    expect(first).not.toBeInstanceOf(Promise);
+    expect(first).toMatchObject({ status: 'miss', entry: { body: '{"x":2}' } });
+    const second = cache.resolveNow('k', produce);
+    expect(second).toMatchObject({ status: 'hit', entry: { body: '{"x":2}' } });
+    expect(produce).toHaveBeenCalledTimes(1);
+    expect(cache.stats()).toMatchObject({ hits: 1, misses: 1, coalesced: 0 });
+  });
+
+  it('switched-off store: every request computed and counted as a miss', () => {
+    const cache = new CoalescingCache(createResultCache(0));
+    const produce = vi.fn(() => entry('{}'));
+    for (let i = 0; i < 3; i++) expect(cache.resolveNow('k', produce)).toMatchObject({ status: 'miss' });
+    expect(produce).toHaveBeenCalledTimes(3);
+    expect(cache.stats()).toMatchObject({ hits: 0, misses: 3 });
+    expect(cache.keepsEntriesHere).toBe(false);
+  });
+
+  it('a store without one: resolveNow is resolveWithStatus (overlapping lookups coalesce)', async () => {
+    const store = new SlowStore();
+    const cache = new CoalescingCache(store);
+    const produce = vi.fn(() => entry('{"y":1}'));
+    const a = cache.resolveNow('k', produce);
+    const b = cache.resolveNow('k', produce);
+    expect(a).toBeInstanceOf(Promise);
+    store.release();
+    expect((await a).status).toBe('miss');
+    expect((await b).status).toBe('coalesced');
+    expect(produce).toHaveBeenCalledTimes(1);
+  });
+
+  it('a computation that throws reaches the caller and stores nothing', () => {
+    const cache = new CoalescingCache(new MemoryCache(1 << 20));
+    expect(() =>
+      cache.resolveNow('k', () => {
+        throw new Error('refused');
+      }),
+    ).toThrow('refused');
+    expect(cache.peek('k')).toBeUndefined();
+    expect(cache.stats().entries).toBe(0);
   });
 });
