@@ -62,7 +62,12 @@ export type LocalResponse = z.infer<typeof localResponse>;
 /** A copy of a record of numbers with every non-finite value as null (plain loop: runs per request). */
 function finiteOrNull(o: object): Record<string, number | null> {
   const out: Record<string, number | null> = {};
-  for (const [k, v] of Object.entries(o)) out[k] = Number.isFinite(v) ? (v as number) : null;
+  const record = o as Record<string, unknown>;
+  for (const k in record) {
+    if (!Object.hasOwn(record, k)) continue;
+    const v = record[k];
+    out[k] = typeof v === 'number' && Number.isFinite(v) ? v : null;
+  }
   return out;
 }
 
