@@ -97,22 +97,19 @@ const plugin: FastifyPluginAsync<ProtectionOptions> = async (app, options) => {
   app.addHook('preClose', async () => {
     draining = true;
   });
-  // Callback style, not async: a hook on every request should not cost a promise.
-  app.addHook('onRequest', (_request, reply, done) => {
-    if (!draining) return done();
-    reply.header('connection', 'close');
-    done(new ProblemError('service-unavailable', 'the service is shutting down; retry on another instance or after the time given'));
-  });
-
   // Security headers: the API set on JSON responses, helmet's defaults on the pages; /docs sets its own CSP
   // (swagger-ui's scripts and styles, by hash) through @fastify/swagger-ui's staticCSP. When CORS is
   // on, responses may be read by other origins, so Cross-Origin-Resource-Policy says so.
   const resourcePolicy = { policy: options.corsOrigins.length > 0 ? ('cross-origin' as const) : ('same-origin' as const) };
   const apiHeaders = securityHeaders(apiHeaderOptions(resourcePolicy));
   const pageHeaders = securityHeaders({ crossOriginResourcePolicy: resourcePolicy });
+  // One hook for both (headers, then the shutdown check), in callback style: a hook on every request
+  // should cost neither a promise nor a second pass through fastify's hook runner.
   app.addHook('onRequest', (request, reply, done) => {
     reply.headers(request.url.startsWith(PAGES_PREFIX) ? pageHeaders : apiHeaders);
-    done();
+    if (!draining) return done();
+    reply.header('connection', 'close');
+    done(new ProblemError('service-unavailable', 'the service is shutting down; retry on another instance or after the time given'));
   });
 
   if (options.corsOrigins.length > 0) {
