@@ -13,7 +13,7 @@ import { service } from './api/responses.js';
 import { registerComputeRoute } from './api/route.js';
 import { registerSweepRoute } from './api/sweep-route.js';
 import { resultCachePlugin } from './cache/plugin.js';
-import { RequestAliases } from './cache/request-aliases.js';
+import { MAX_ALIAS_BYTES, RequestAliases } from './cache/request-aliases.js';
 import { defaultConfig, type Config } from './config.js';
 import { installErrorHandling, problemBody, sendProblem } from './error-handler.js';
 import { PROBLEMS, problemTypeUri, type ProblemCode } from './errors.js';
@@ -107,8 +107,11 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     ...(options.pressureSampleIntervalMs ? { sampleIntervalMs: options.pressureSampleIntervalMs } : {}),
   });
   await app.register(healthPlugin, { retryAfterSeconds: config.RETRY_AFTER_S });
-  // One alias table for every compute route (request texts start with the path, so they never collide).
-  const aliases = new RequestAliases();
+  // One alias table for every compute route (request texts start with the path, so they never
+  // collide), bounded by a quarter of the in-memory cache's bound, at most MAX_ALIAS_BYTES; none when
+  // that cache is off (the routes alias only in front of the in-memory store).
+  const aliasBytes = Math.min(MAX_ALIAS_BYTES, Math.floor(config.CACHE_MAX_BYTES / 4));
+  const aliases = aliasBytes > 0 ? new RequestAliases(aliasBytes) : undefined;
   for (const route of COMPUTE_ROUTES) registerComputeRoute(app, route, app.resultCache, aliases);
   registerSweepRoute(app, config.SWEEP_MAX_POINTS, app.resultCache);
   registerQuantities(app);

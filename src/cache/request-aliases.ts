@@ -12,8 +12,9 @@
  * x-request-id only names the request.
  *
  * Only the in-memory store is fronted (its lookup is synchronous): for a shared store (Redis) the
- * round trip dwarfs the validation saved. Aliases are bounded by bytes (MAX_ALIAS_BYTES in all, texts
- * of at most MAX_ALIAS_TEXT_BYTES each), least recently used first out.
+ * round trip dwarfs the validation saved. Aliases are bounded by bytes (app.ts: a quarter of
+ * CACHE_MAX_BYTES, at most MAX_ALIAS_BYTES; texts of at most MAX_ALIAS_TEXT_BYTES each), least
+ * recently used first out.
  */
 import { LRUCache } from 'lru-cache';
 
