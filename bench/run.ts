@@ -235,22 +235,13 @@ async function main(): Promise<void> {
   const parts = benchParts(process.env.BENCH_PARTS);
   const tables: string[] = [];
   // Other work on the machine skews every row; the load average at the start is printed with each table.
-  if (parts.has('fall')) {
-    const load = loadavg()[0] ?? Number.NaN;
-    tables.push(fallTable(await measureFalls(ROOT, FALL_CASES), load));
-  }
-  if (parts.has('light')) {
-    const load = loadavg()[0] ?? Number.NaN;
-    tables.push(lightTable(await measureLight(ROOT, LIGHT_CASES), load));
-  }
-  if (parts.has('geodesic')) {
-    const load = loadavg()[0] ?? Number.NaN;
-    tables.push(geodesicTable(await measureGeodesics(ROOT, GEODESIC_CASES), load));
-  }
-  if (parts.has('sweep')) {
-    const load = loadavg()[0] ?? Number.NaN;
-    tables.push(sweepTable(await measureSweeps(ROOT, SWEEP_CASES), load));
-  }
+  const inProcess: [Part, (load: number) => Promise<string>][] = [
+    ['fall', async (load) => fallTable(await measureFalls(ROOT, FALL_CASES), load)],
+    ['light', async (load) => lightTable(await measureLight(ROOT, LIGHT_CASES), load)],
+    ['geodesic', async (load) => geodesicTable(await measureGeodesics(ROOT, GEODESIC_CASES), load)],
+    ['sweep', async (load) => sweepTable(await measureSweeps(ROOT, SWEEP_CASES), load)],
+  ];
+  for (const [part, table] of inProcess) if (parts.has(part)) tables.push(await table(loadavg()[0] ?? Number.NaN));
   if (parts.has('http')) tables.unshift(await httpPart());
   process.stdout.write(`${tables.join('\n\n')}\n`);
 }

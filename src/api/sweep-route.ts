@@ -48,25 +48,13 @@ export function prefersCsv(accept: string | undefined): boolean {
 }
 
 /**
- * The bytes of a cached document to send: the entry's own when the store keeps bytes (the in-memory
- * store), else those of the last document this route sent, kept with its entry: an identical repeat
- * (the common case: a client asking the same sweep again) is sent without copying 1e6 numbers again.
- * One slot, so it holds at most one extra copy of one document. The document is ASCII
- * (sweepJsonChunks), so latin1 copies it byte for byte: a few ms for 1e6 points, where writing the
- * string makes Node encode it to UTF-8 at a fraction of the speed.
+ * The bytes of a JSON sweep to send: the entry's own when the store keeps bytes (the in-memory store),
+ * else a copy of the string. The document is ASCII (sweepJsonChunks), so latin1 copies it byte for
+ * byte: a few ms for 1e6 points, where writing the string makes Node encode it to UTF-8 at a
+ * fraction of the speed.
  */
-class LastSent {
-  private entry: CacheEntry | null = null;
-  private bytes: Buffer | null = null;
-
-  bytesOf(entry: CacheEntry): Buffer {
-    if (entry.bytes) return entry.bytes; // the in-memory store keeps them
-    if (this.entry !== entry || this.bytes === null) {
-      this.bytes = Buffer.from(entry.body, 'latin1');
-      this.entry = entry;
-    }
-    return this.bytes;
-  }
+function bytesOf(entry: CacheEntry): Buffer {
+  return entry.bytes ?? Buffer.from(entry.body, 'latin1');
 }
 
 /**
@@ -78,7 +66,6 @@ class LastSent {
 const CSV_CONTENT_TYPE = 'text/csv; charset=utf-8';
 
 export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWEEP_DEFAULT_MAX_POINTS, cache?: CoalescingCache): void {
-  const lastSent = new LastSent();
   app.post('/v1/sweep', async (request: FastifyRequest, reply: FastifyReply) => {
     const validated = parseOr400(sweepRequest, request.body);
     if (prefersCsv(request.headers.accept)) {
@@ -120,6 +107,6 @@ export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWE
       .header(CACHE_STATUS_HEADER, status)
       .header('cache-control', POST_CACHE_CONTROL)
       .header('content-type', entry.contentType)
-      .send(lastSent.bytesOf(entry));
+      .send(bytesOf(entry));
   });
 }

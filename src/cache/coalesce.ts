@@ -73,11 +73,6 @@ export class CoalescingCache implements ResultCache {
     return { entry, status: 'miss' };
   }
 
-  /** Whether the store has a synchronous lookup (the in-memory LRU and the switched-off store). */
-  get canPeek(): boolean {
-    return this.store.peek !== undefined;
-  }
-
   /** Whether the store keeps entries in this process (request aliasing pays only then). */
   get keepsEntriesHere(): boolean {
     return this.store.peek !== undefined && this.store.health().backend === 'memory';
@@ -89,7 +84,7 @@ export class CoalescingCache implements ResultCache {
   }
 
   /**
-   * For a store with a synchronous lookup (canPeek): the stored entry, or `produce`'s, stored — all in
+   * For a store with a synchronous lookup (ResultCache.peek): the stored entry, or `produce`'s, stored — all in
    * this turn of the event loop, with no promise. Nothing can coalesce here: a lookup and computation
    * that finish in one turn never overlap another request's. Falls back to resolveWithStatus for
    * other stores.

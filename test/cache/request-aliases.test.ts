@@ -58,11 +58,11 @@ describe('RequestAliases and requestText', () => {
     expect(requestText('PUT', '/v1/local', '{}')).toBeUndefined();
   });
 
-  it('the coalescing front peeks only when its store can', () => {
+  it('the coalescing front peeks, and fronts aliases, only over a store in this process', () => {
     const entry: CacheEntry = { body: '{}', contentType: 'application/json', etag: '"e"' };
     const memory = new MemoryCache(1 << 20);
     const front = new CoalescingCache(memory);
-    expect(front.canPeek).toBe(true);
+    expect(front.keepsEntriesHere).toBe(true);
     expect(front.peek('k')).toBeUndefined();
     expect(memory.stats().misses).toBe(0); // a failed peek counts nothing; the full path counts the miss
     void memory.set('k', entry);
@@ -76,7 +76,9 @@ describe('RequestAliases and requestText', () => {
       health: () => ({ backend: 'redis', state: 'ready' }),
       close: () => Promise.resolve(),
     };
-    expect(new CoalescingCache(remote).canPeek).toBe(false);
+    const shared = new CoalescingCache(remote);
+    expect(shared.keepsEntriesHere).toBe(false);
+    expect(shared.peek('k')).toBeUndefined();
   });
 });
 
