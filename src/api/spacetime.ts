@@ -6,7 +6,7 @@ import { z } from 'zod';
 import { canonicalBody } from '../cache/key.js';
 import { horizonProperties } from '../physics/horizon.js';
 import { characteristicOrbits } from '../physics/characteristic-orbits.js';
-import { BLACK_HOLE_ONLY, BODY_QUANTITIES, NAKED, SURFACE_ONLY, type BodyQuantity } from '../physics/sweep-body.js';
+import { BLACK_HOLE_ONLY, BODY_QUANTITIES, HORIZON_QUANTITIES, NAKED, SURFACE_ONLY, type BodyQuantity } from '../physics/sweep-body.js';
 import { evaluateLocal } from '../physics/local.js';
 import { ergosurfaceRadius } from '../physics/spacetime.js';
 import { toQuantity, type QuantityValue } from '../units/convert.js';
@@ -18,15 +18,6 @@ import type { ComputeRoute } from './route.js';
 export const SPACETIME_QUANTITIES = BODY_QUANTITIES;
 type SpacetimeQuantity = BodyQuantity;
 
-/** The properties of a black hole's outer horizon (from physics/horizon.ts). */
-const HORIZON_QUANTITIES = [
-  'surfaceGravity',
-  'hawkingTemperature',
-  'horizonArea',
-  'horizonAngularVelocity',
-  'horizonElectricPotential',
-  'irreducibleMass',
-] as const;
 const SURFACE_QUANTITIES = ['compactness', 'surfaceEscapeSpeed', 'surfaceClockOffset', 'surfaceHoverAcceleration'] as const;
 
 export const spacetimeRequest = z.strictObject({ body: bodyInput }).meta({ id: 'SpacetimeRequest' });

@@ -53,14 +53,16 @@ const NO_ISCO_EL = 'in the extremal limit the ISCO meets the horizon in Boyer–
 /** Fallbacks (without the body-specific length) when a sweep's reason table is full. */
 const BELOW_SURFACE_GENERIC = 'it would lie inside the body: it does not exist';
 
-const HORIZON_KEYS = new Set<string>([
+/** The properties of a black hole's outer horizon (physics/horizon.ts), shared with /v1/spacetime. */
+export const HORIZON_QUANTITIES = [
   'surfaceGravity',
   'hawkingTemperature',
   'horizonArea',
   'horizonAngularVelocity',
   'horizonElectricPotential',
   'irreducibleMass',
-]);
+] as const satisfies readonly BodyQuantity[];
+const HORIZON_KEYS = new Set<string>(HORIZON_QUANTITIES);
 
 /** Formats a geometric length as the SI text /v1/spacetime writes into its reasons ("1234 m"). */
 export type LengthText = (rGeometric: number, index: number) => string;
