@@ -48,10 +48,10 @@ export function prefersCsv(accept: string | undefined): boolean {
 }
 
 /**
- * The bytes of a JSON sweep to send: the entry's own when the store keeps bytes (the in-memory store),
- * else a copy of the string. The document is ASCII (sweepJsonChunks), so latin1 copies it byte for
- * byte: a few ms for 1e6 points, where writing the string makes Node encode it to UTF-8 at a
- * fraction of the speed.
+ * The bytes of a JSON sweep document. It is pure ASCII (sweep-output.ts), so latin1 copies it byte for
+ * byte, and those bytes are its UTF-8 too: a few ms for 1e6 points, where writing the string makes
+ * Node encode it to UTF-8 at a fraction of the speed. A computed entry carries them, so the in-memory
+ * store keeps the same bytes (no second encoding) and the response sends them.
  */
 function bytesOf(entry: CacheEntry): Buffer {
   return entry.bytes ?? Buffer.from(entry.body, 'latin1');
@@ -99,7 +99,8 @@ export function registerSweepRoute(app: FastifyInstance, maxPoints: number = SWE
     }
     const produce = (): CacheEntry => {
       const prepared = prepareSweep(validated, maxPoints);
-      return { body: sweepJson(prepared, computeSweepColumns(prepared)), contentType: JSON_CONTENT_TYPE, etag };
+      const body = sweepJson(prepared, computeSweepColumns(prepared));
+      return { body, bytes: Buffer.from(body, 'latin1'), contentType: JSON_CONTENT_TYPE, etag };
     };
     const { entry, status } = cache ? await cache.resolveNow(key, produce) : { entry: produce(), status: 'miss' as const };
     return reply

@@ -14,7 +14,8 @@ export interface CacheEntry {
   etag: string;
   /**
    * The body as UTF-8 bytes, when the store keeps it so: the in-memory store does, so a hit is
-   * written to the socket as is instead of being encoded from a string on every response.
+   * written to the socket as is instead of being encoded from a string on every response. A producer
+   * that has them at hand (the sweep's ASCII document) passes them, and the in-memory store keeps those.
    */
   readonly bytes?: Buffer;
 }

@@ -64,6 +64,17 @@ describe('MemoryCache', () => {
     expect(cache.stats().bytes).toBe(entrySize(key(2), e));
   });
 
+  it('keeps the bytes an entry brings (no second encoding) and charges their length', async () => {
+    const cache = new MemoryCache(1 << 20);
+    const body = '{"axes":[1,2,3]}';
+    const bytes = Buffer.from(body, 'latin1');
+    await cache.set(key(3), { body, bytes, contentType: 'application/json; charset=utf-8', etag: '"b"' });
+    const got = await cache.get(key(3));
+    expect(got?.bytes).toBe(bytes);
+    expect(got?.body).toBe(body);
+    expect(cache.stats().bytes).toBe(entrySize(key(3), { body, contentType: 'application/json; charset=utf-8', etag: '"b"' }));
+  });
+
   it('counts hits and misses and returns the stored entry unchanged, with its UTF-8 bytes', async () => {
     const cache = new MemoryCache(1 << 20);
     const e = entry(50);
