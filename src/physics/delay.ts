@@ -31,7 +31,8 @@
  * the tests). A published check (Reasenberg et al. 1979, ApJ 234, L219): the round trip Earth–Mars at
  * superior conjunction with the ray grazing the Sun is ≈ 250 µs.
  */
-import { schwarzschildClosestApproach, type RayInput } from './deflection.js';
+import { schwarzschildClosestApproach } from './deflection-schwarzschild.js';
+import type { RayInput } from './deflection.js';
 import { tanhSinh } from './quadrature.js';
 
 export interface ShapiroRequest {

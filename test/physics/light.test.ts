@@ -1,20 +1,22 @@
 /**
- * Deflection of light (./deflection.ts) and the Shapiro delay (./delay.ts) against
- * test/fixtures/python/light.py (mpmath quadrature of the textbook integrals at 40 digits, Darwin's
- * form in mpmath's Legendre integrals, Gauss–Legendre for the delay), the closed forms and limits the
- * general path must meet, published values, and the refusals.
+ * Deflection of light (./deflection.ts, ./deflection-schwarzschild.ts) and the Shapiro delay
+ * (./delay.ts) against test/fixtures/python/light.py (mpmath quadrature of the textbook integrals at
+ * 40 digits, Darwin's form in mpmath's Legendre integrals, Gauss–Legendre for the delay), the closed
+ * forms and limits the general path must meet, published values, and the refusals.
  */
 import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   darwinDeflection,
-  deflection,
-  equatorialPhotonOrbit,
-  impactParameter,
   schwarzschildClosestApproach,
   schwarzschildSeriesDeflection,
   weakFieldDeflection,
+} from '../../src/physics/deflection-schwarzschild.js';
+import {
+  deflection,
+  equatorialPhotonOrbit,
+  impactParameter,
   type Deflection,
   type DeflectionResult,
 } from '../../src/physics/deflection.js';
