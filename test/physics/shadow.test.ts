@@ -1,22 +1,18 @@
 /**
- * The Kerr–Newman shadow (./shadow.ts) against test/fixtures/python/light.py (Bardeen's spherical
- * photon orbits at 40 digits, the visible range and vertical extent by mpmath findroot, mean radius
- * and circularity by Gauss–Legendre quadrature of the textbook expressions with symbolic
- * derivatives), the closed cases (Schwarzschild, Reissner–Nordström, face-on, extreme Kerr), the
- * static observer's angular radius (Synge), published values, and the refusals.
+ * The Kerr–Newman shadow (src/physics/shadow.ts, photon-region.ts, shadow-angular-size.ts) against
+ * test/fixtures/python/light.py (Bardeen's spherical photon orbits at 40 digits, the visible range and
+ * vertical extent by mpmath findroot, mean radius and circularity by Gauss–Legendre quadrature of the
+ * textbook expressions with symbolic derivatives), the closed cases (Schwarzschild, Reissner–Nordström,
+ * face-on, extreme Kerr), the static observer's angular radius (Synge), published values, and the
+ * refusals.
  */
 import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { equatorialPhotonOrbit } from '../../src/physics/deflection.js';
-import {
-  distantAngularSize,
-  shadow,
-  sphericalPhotonOrbit,
-  staticObserverShadowRadius,
-  type Shadow,
-  type ShadowResult,
-} from '../../src/physics/shadow.js';
+import { sphericalPhotonOrbit } from '../../src/physics/photon-region.js';
+import { shadow, type Shadow, type ShadowResult } from '../../src/physics/shadow.js';
+import { distantAngularSize, staticObserverShadowRadius } from '../../src/physics/shadow-angular-size.js';
 import { C, GM_SUN, PARSEC } from '../../src/units/constants.js';
 
 interface ShadowCase {
