@@ -9,7 +9,7 @@
  */
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import type { FreeFallOptions, FreeFallRequest } from '../src/physics/free-fall.js';
+import type { FreeFallOptions, FreeFallRequest } from '../src/physics/free-fall-types.js';
 import type { KerrNewman } from '../src/physics/spacetime.js';
 import { runProgram } from './processes.js';
 import { formatTable, formatTiming, machineLine, timePerCall, timingArguments, timingDescription, type Timing } from './timing.js';

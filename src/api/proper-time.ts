@@ -5,7 +5,8 @@
  */
 import { z } from 'zod';
 import { ProblemError, invalid, unphysical } from '../errors.js';
-import { FALL_REASONS, freeFall, type FallStart, type FreeFall, type FreeFallRefused } from '../physics/free-fall.js';
+import { freeFall } from '../physics/free-fall.js';
+import { FALL_REASONS, type FallStart, type FreeFall, type FreeFallRefused } from '../physics/free-fall-types.js';
 import { circularOrbitRevolutions, stationaryFarAwayTime, stationaryProperTime } from '../physics/proper-time.js';
 import { region } from '../physics/spacetime.js';
 import { bodyInput, normalizeBody, normalizePoint, pointInput, quantityInput, readAngle, readLength, readQuantity, type Body } from './inputs.js';

@@ -7,14 +7,9 @@ import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { stationaryObserver, type Observer } from '../../src/physics/observers.js';
-import {
-  freeFall,
-  riverFrameProperTime,
-  schwarzschildDropFromRest,
-  type FallStart,
-  type FreeFall,
-  type FreeFallResult,
-} from '../../src/physics/free-fall.js';
+import { freeFall } from '../../src/physics/free-fall.js';
+import { riverFrameProperTime, schwarzschildDropFromRest } from '../../src/physics/free-fall-schwarzschild.js';
+import type { FallStart, FreeFall, FreeFallResult } from '../../src/physics/free-fall-types.js';
 import { circularOrbitRevolutions, stationaryFarAwayTime, stationaryProperTime } from '../../src/physics/proper-time.js';
 
 interface FallCase {
