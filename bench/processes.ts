@@ -6,7 +6,8 @@
  * Servers and the load generator run in different processes, so on a small machine they take
  * different cores. Traffic goes to 127.0.0.1 only.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
+import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import { createServer } from 'node:net';
 import autocannon from 'autocannon';
 import { median } from './timing.js';
@@ -50,6 +51,11 @@ export interface Run {
   /** Connection errors and timeouts. */
   errors: number;
   non2xx: number;
+  /**
+   * CPU time (user + system) the server process spent per request during the measured seconds, µs;
+   * NaN where /proc is not available.
+   */
+  serverCpuMicros: number;
 }
 
 /** A case over several rounds: the rounds' throughputs, and latencies pooled over every round. */
@@ -64,6 +70,8 @@ export interface Measurement {
   /** Connection errors and timeouts, all rounds. */
   errors: number;
   non2xx: number;
+  /** Median over the rounds of the server's CPU time per request, µs (NaN without /proc). */
+  serverCpuMicros: number;
 }
 
 export interface Server {
@@ -247,22 +255,55 @@ function percentile(sorted: Float64Array, q: number): number {
   return sorted[Math.max(0, index)] ?? Number.NaN;
 }
 
-/** Runs autocannon against `server` with a warm-up first; `seconds` is the measured duration. */
+/** Clock ticks per second of the times in /proc/<pid>/stat (getconf CLK_TCK; 100 on Linux if unknown). */
+let clockTicks: number | undefined;
+function ticksPerSecond(): number {
+  if (clockTicks === undefined) {
+    try {
+      clockTicks = Number(execFileSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).trim()) || 100;
+    } catch {
+      clockTicks = 100;
+    }
+  }
+  return clockTicks;
+}
+
+/**
+ * CPU time (user + system) a process has used so far, µs, from /proc/<pid>/stat (fields 14 and 15,
+ * utime and stime, in clock ticks; counted after the parenthesised command name, which may hold
+ * spaces); NaN where /proc is not available.
+ */
+export function processCpuMicros(pid: number | undefined): number {
+  if (pid === undefined) return Number.NaN;
+  try {
+    const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+    return ((Number(fields[11]) + Number(fields[12])) * 1e6) / ticksPerSecond();
+  } catch {
+    return Number.NaN;
+  }
+}
+
+/**
+ * Runs autocannon against `server`: a warm-up run of `warmupSeconds`, then the measured run of
+ * `seconds`, with the server's CPU time read just before and after it.
+ */
 export async function measure(server: Server, c: BenchCase, seconds: number, warmupSeconds: number): Promise<Run> {
-  // Capacity is bounded; past it the sample is the first `capacity` responses.
-  const capacity = Math.min(20_000_000, Math.max(100_000, 200_000 * seconds));
-  let times = new Float64Array(Math.min(capacity, 1_000_000));
-  let count = 0;
-  const instance = autocannon({
+  const options = {
     url: server.url + c.path,
     connections: CONNECTIONS,
-    duration: seconds,
     timeout: 10,
     method: c.method,
     ...(c.body !== undefined ? { body: c.body } : {}),
     ...(c.headers ? { headers: c.headers } : {}),
-    warmup: { connections: CONNECTIONS, duration: warmupSeconds },
-  });
+  };
+  await autocannon({ ...options, duration: warmupSeconds });
+  // Capacity is bounded; past it the sample is the first `capacity` responses.
+  const capacity = Math.min(20_000_000, Math.max(100_000, 200_000 * seconds));
+  let times = new Float64Array(Math.min(capacity, 1_000_000));
+  let count = 0;
+  const cpuBefore = processCpuMicros(server.pid);
+  const instance = autocannon({ ...options, duration: seconds });
   instance.on('response', (_client: unknown, statusCode: number, _bytes: number, responseTime: number) => {
     if (statusCode < 200 || statusCode > 299 || count >= capacity) return;
     if (count === times.length) {
@@ -273,11 +314,13 @@ export async function measure(server: Server, c: BenchCase, seconds: number, war
     times[count++] = responseTime;
   });
   const result = await instance;
+  const cpu = processCpuMicros(server.pid) - cpuBefore;
   return {
     requestsPerSecond: result.requests.total / result.duration,
     times: times.slice(0, count),
     errors: result.errors,
     non2xx: result.non2xx,
+    serverCpuMicros: result.requests.total > 0 ? cpu / result.requests.total : Number.NaN,
   };
 }
 
@@ -298,5 +341,6 @@ export function combineRuns(runs: readonly Run[]): Measurement {
     p99: percentile(pooled, 0.99),
     errors: runs.reduce((n, r) => n + r.errors, 0),
     non2xx: runs.reduce((n, r) => n + r.non2xx, 0),
+    serverCpuMicros: median(runs.map((r) => r.serverCpuMicros)),
   };
 }

@@ -208,13 +208,14 @@ function httpTable(rows: Row[], header: string[]): string {
       ms(m.p50),
       ms(m.p99),
       `${m.errors} / ${m.non2xx}`,
+      Number.isFinite(m.serverCpuMicros) ? m.serverCpuMicros.toFixed(1) : '—',
       ratioText(m, tinyAround, true),
       ratioText(m, rival ? measured(rival)?.perRound : undefined, false),
       isService ? ratioText(m, measured(LOCAL_REFERENCE)?.perRound, false) : '—',
       met,
     ];
   });
-  const head = ['case', 'req/s', 'p50 ms', 'p99 ms', 'errors / non-2xx', 'vs bare tiny', 'vs same payload', `vs ${LOCAL_REFERENCE.name}`, 'target met'];
+  const head = ['case', 'req/s', 'p50 ms', 'p99 ms', 'errors / non-2xx', 'server CPU µs/req', 'vs bare tiny', 'vs same payload', `vs ${LOCAL_REFERENCE.name}`, 'target met'];
   return formatTable(header, head, body);
 }
 
@@ -294,6 +295,7 @@ async function httpPart(): Promise<string> {
     `target for ${TARGET_CASES.map((c) => c.name).join(' and ')}: ≥ ${TARGET_RATIO * 100}% of the bare tiny route's req/s and p99 < ${TARGET_P99_MS} ms, no errors, with the service as the README starts it (default in-memory result cache: autocannon repeats one request, so after the first each is a cache hit) but LOG_LEVEL=warn (the default, info, writes two access-log lines per request)`,
     'rows marked (computed) run against a second service with CACHE_MAX_BYTES=0, so every request is validated, keyed, computed and serialised; "target met" applies the same test to them for context',
     '"vs same payload": against a bare route sending the same response bytes, pre-serialised (no work but fastify\'s own)',
+    '"server CPU µs/req": user + system CPU time of the server process over the measured seconds (/proc/<pid>/stat) per request answered, median over the rounds; the client (autocannon, in this process) shares this machine’s cores, so req/s also depends on what each response costs the client to read',
     ...goalLines(),
   ];
   return httpTable(rows, header);
