@@ -15,7 +15,6 @@ import { median } from './timing.js';
 export const HOST = '127.0.0.1';
 export const CONNECTIONS = 50;
 
-/** Which server a case runs against. */
 /**
  * Which server a case runs against: a bare fastify route, the service as the README starts it
  * (default in-memory result cache), or the service with the cache off (every request computed).

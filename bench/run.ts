@@ -1,5 +1,5 @@
 /**
- * `npm run bench`, four tables:
+ * `npm run bench`, five tables (BENCH_PARTS picks some: http, fall, light, geodesic, sweep):
  *
  * 1. HTTP: /v1/local, /v1/clocks, /v1/orbits/circular and a small sweep under autocannon against bare
  *    fastify JSON routes measured in the same run. Target for GET and POST /v1/local, against the
@@ -13,8 +13,8 @@
  *    and its ratio to that route is taken against those two.
  * 2. In-process: free fall by quadrature against scipy (./fall.ts).
  * 3. In-process: the Kerr shadow against numpy and the deflection of light against scipy (./light.ts).
- *    Geodesics (./geodesic.ts): a 10-orbit Kerr geodesic against scipy's solve_ivp DOP853 (target ≥ 10×).
- * 4. Sweeps (./sweep.ts): a 1e6-point compute rate against numpy, and the same sweep as columnar JSON
+ * 4. Geodesics (./geodesic.ts): a 10-orbit Kerr geodesic against scipy's solve_ivp DOP853 (target ≥ 10×).
+ * 5. Sweeps (./sweep.ts): a 1e6-point compute rate against numpy, and the same sweep as columnar JSON
  *    over HTTP from a fresh service (cold, cached repeat, peak RSS).
  *
  * Benchmarks report; they do not fail: a missed target still exits 0. A server that cannot start exits 1.

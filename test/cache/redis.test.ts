@@ -278,17 +278,21 @@ describe('the service with REDIS_URL, Redis killed and restarted mid-run', () =>
 
   it('twenty identical requests at once: one computation, the others join it or read it from Redis', async () => {
     const compute = vi.spyOn(localRoute, 'compute');
-    const before = app.resultCache.stats();
-    const all = await Promise.all(
-      Array.from({ length: 20 }, () => app.inject({ method: 'GET', url: '/v1/local?mass=7%20Msun&spin=0.3&r=9%20rg' })),
-    );
-    expect(all.every((r) => r.statusCode === 200 && r.body === all[0]!.body)).toBe(true);
-    expect(compute).toHaveBeenCalledTimes(1);
-    const after = app.resultCache.stats();
-    // The Redis read is asynchronous, so requests arriving while it is in flight join it.
-    expect(after.coalesced - before.coalesced).toBeGreaterThan(0);
-    expect(after.misses - before.misses + (after.hits - before.hits) + (after.coalesced - before.coalesced)).toBe(20);
-    compute.mockRestore();
+    try {
+      const before = app.resultCache.stats();
+      const all = await Promise.all(
+        Array.from({ length: 20 }, () => app.inject({ method: 'GET', url: '/v1/local?mass=7%20Msun&spin=0.3&r=9%20rg' })),
+      );
+      expect(all.every((r) => r.statusCode === 200 && r.body === all[0]!.body)).toBe(true);
+      expect(compute).toHaveBeenCalledTimes(1);
+      const after = app.resultCache.stats();
+      // The Redis read is asynchronous, so requests arriving while it is in flight join it.
+      expect(after.coalesced - before.coalesced).toBeGreaterThan(0);
+      expect(after.misses - before.misses + (after.hits - before.hits) + (after.coalesced - before.coalesced)).toBe(20);
+    } finally {
+      // A failed assertion must not leave the spy on for the tests after it.
+      compute.mockRestore();
+    }
   });
 
   it('caches a large sweep (megabytes) in Redis and serves it byte-identical', async () => {
