@@ -9,7 +9,7 @@ import { canonicalBody, canonicalPoint } from '../cache/key.js';
 import { CATALOGUE_BY_NAME } from '../catalogue.js';
 import { invalid, unphysical } from '../errors.js';
 import { REASONS } from '../physics/local.js';
-import { OBSERVER_REASONS } from '../physics/observers.js';
+import { STATIONARY_REASONS } from '../physics/observers.js';
 import { horizons, region } from '../physics/spacetime.js';
 import {
   disruptionRadius,
@@ -147,13 +147,7 @@ export const tidalResponse = z
   .meta({ id: 'TidalResponse' });
 export type TidalResponse = z.infer<typeof tidalResponse>;
 
-const ABSENT: Record<TetradAbsence, string> = {
-  insideHorizon: OBSERVER_REASONS.insideHorizon,
-  onHorizon: OBSERVER_REASONS.onHorizon,
-  ergoregion: OBSERVER_REASONS.ergoregion,
-  noZamo: OBSERVER_REASONS.noZamo,
-  noFlow: REASONS.noFlow,
-};
+const ABSENT: Record<TetradAbsence, string> = { ...STATIONARY_REASONS, noFlow: REASONS.noFlow };
 const NOT_FINITE = 'the tidal tensor is not finite in double precision at this point (next to the singularity)';
 
 interface Normalized {
@@ -275,7 +269,7 @@ export const tidalRoute: ComputeRoute<TidalRequest> = {
   operationId: 'tidal',
   summary: 'Tidal tensor, stretch and squeeze, and tidal disruption',
   description:
-    'The tidal tensor (electric part of the Riemann tensor) at a point, in the frames of a static observer, a ZAMO and a river free-faller (falling from rest at infinity; it exists inside the horizons too): its components, eigenvalues in s⁻² labelled stretch or squeeze with their directions, and the differential acceleration across an object of given length. With a star ({ mass, radius } or "sun"): the tidal disruption radius R⋆(M/m⋆)^{1/3} (an estimate), whether it lies outside the horizon, and the Hills mass. An observer that cannot exist at the point is listed with the reason; the rest still stands.',
+    'The tidal tensor (electric part of the Riemann tensor) at a point, in the frames of a static observer and a ZAMO (outside the outer horizon, and inside the inner one where they exist again) and a river free-faller (falling from rest at infinity; it exists between the horizons too): its components, eigenvalues in s⁻² labelled stretch or squeeze with their directions, and the differential acceleration across an object of given length. With a star ({ mass, radius } or "sun"): the tidal disruption radius R⋆(M/m⋆)^{1/3} (an estimate), whether it lies outside the horizon, and the Hills mass. An observer that cannot exist at the point is listed with the reason; the rest still stands.',
   tag: 'tides',
   body: tidalRequest,
   response: tidalResponse,

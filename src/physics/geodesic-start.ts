@@ -57,6 +57,11 @@ export function refuse(reason: GeodesicRefusalReason, field: string, message: st
   return { ok: false, reason, field, message };
 }
 
+const OBSERVER_NAMES: Record<Exclude<LaunchObserver, 'river'>, string> = {
+  static: 'static observer',
+  zamo: 'zero-angular-momentum observer (ZAMO)',
+};
+
 /** Initial (p_r, p_θ) and constants from the request, or a refusal. */
 export function initialMomentum(
   s: KerrNewman,
@@ -69,7 +74,9 @@ export function initialMomentum(
     const tr = observerTetrad(s, st.observer, st.r, st.theta);
     if (!tr.ok) {
       const reason: TetradAbsenceReason = tr.reason;
-      return refuse(reason === 'onAxis' || reason === 'singular' ? 'singularStart' : 'noObserver', reason === 'onAxis' ? 'theta' : 'observer', TETRAD_REASONS[reason]);
+      if (reason === 'onAxis' || reason === 'singular') return refuse('singularStart', reason === 'onAxis' ? 'theta' : 'observer', TETRAD_REASONS[reason]);
+      if (st.observer === 'river') return refuse('noObserver', 'observer', TETRAD_REASONS[reason]);
+      return refuse('noObserver', 'observer', `no ${OBSERVER_NAMES[st.observer]} can launch here: ${TETRAD_REASONS[reason]}`);
     }
     const p = launchMomentum(tr.tetrad, particle, st.speed, st.psi, st.chi);
     return { c: { E: -p[0]!, L: p[3]!, kappa }, pr: p[1]!, pth: p[2]! };

@@ -26,7 +26,7 @@
  * For a = 0 this is the familiar gravitational + velocity split; for a ≠ 0 the middle term is needed
  * (a ZAMO moves relative to the static observers, yet its clock runs faster than theirs).
  */
-import { horizons, pointFunctions, type KerrNewman } from './spacetime.js';
+import { horizons, pointFunctions, type KerrNewman, type PointFunctions } from './spacetime.js';
 
 export type ObserverKind = 'static' | 'zamo' | 'circular' | 'rotating' | 'distant';
 export type OrbitDirection = 'prograde' | 'retrograde';
@@ -103,7 +103,8 @@ export type ObserverResult = Observer | ObserverAbsent;
 
 export const OBSERVER_REASONS: Record<ObserverAbsenceReason, string> = {
   invalidInput: 'r must be a finite positive Boyer–Lindquist radius, θ in [0, π] and Ω finite',
-  insideHorizon: 'the point is inside the outer horizon: no observer can stay at fixed r there',
+  insideHorizon:
+    'the point is inside the outer horizon: no clock there can be compared with far-away clocks (no light from it escapes; between the horizons no observer can even stay at fixed r)',
   onHorizon: 'the point is on the outer horizon: only light can stay there',
   ergoregion:
     'the point is on or inside the ergosurface: space is dragged around so fast that no observer can stay at fixed r, θ, φ',
@@ -115,6 +116,43 @@ export const OBSERVER_REASONS: Record<ObserverAbsenceReason, string> = {
     'no timelike circular orbit exists here: at or inside the photon orbit an orbit would need the speed of light or more',
   fasterThanLight: 'at this angular velocity the observer would move at or faster than light (dτ/dt would not be real)',
 };
+
+/** Why no static observer or ZAMO can be at a point, whatever it is used for (see stationaryAbsence). */
+export type StationaryAbsence = 'onHorizon' | 'betweenHorizons' | 'ergoregion' | 'noZamo';
+
+export const STATIONARY_REASONS: Record<StationaryAbsence, string> = {
+  onHorizon: 'the point is on a horizon: only light can stay there',
+  betweenHorizons:
+    'the point lies between the outer and the inner horizon, where r is a time coordinate: no observer can stay at fixed r',
+  ergoregion: OBSERVER_REASONS.ergoregion,
+  noZamo: OBSERVER_REASONS.noZamo,
+};
+
+/**
+ * Where a static observer (u ∝ ∂_t) or a ZAMO (u ∝ ∂_t + ω ∂_φ) exists as a local frame: where Δ > 0,
+ * i.e. outside the outer horizon or inside the inner one (between them r is a time coordinate, and on
+ * them only light stays at fixed r); there the static observer needs g_tt < 0 (Σ > μ: outside the
+ * ergosurface, or inside its inner sheet) and the ZAMO g_φφ > 0 (A > 0; not in the region of closed
+ * timelike curves deep inside a spinning, charged hole). Null where the observer exists. The
+ * horizon test uses the roots themselves, so its sign is exact next to them (Δ = (r − r₊)(r − r₋));
+ * a point whose computed Δ still rounds to ≤ 0 counts as on the horizon.
+ * Whether a clock there can be compared with far-away clocks is a separate question
+ * (stationaryObserver refuses every point on or inside the outer horizon for that reason).
+ */
+export function stationaryAbsence(
+  s: KerrNewman,
+  kind: 'static' | 'zamo',
+  r: number,
+  p: Pick<PointFunctions, 'sigma' | 'mu' | 'delta' | 'bigA'>,
+): StationaryAbsence | null {
+  const h = horizons(s);
+  if (h && (r === h.outer || r === h.inner)) return 'onHorizon';
+  if (h && r < h.outer && r > h.inner) return 'betweenHorizons';
+  // Within rounding of a root Δ itself may come out ≤ 0: there the frames are not computable.
+  if (!(p.delta > 0)) return 'onHorizon';
+  if (kind === 'static') return p.sigma > p.mu ? null : 'ergoregion';
+  return p.bigA > 0 ? null : 'noZamo';
+}
 
 function absent(kind: ObserverKind, reason: ObserverAbsenceReason): ObserverAbsent {
   return { exists: false, kind, reason, message: OBSERVER_REASONS[reason] };
@@ -161,13 +199,13 @@ export function stationaryObserver(s: KerrNewman, spec: ObserverSpec): ObserverR
   let omega: number;
   switch (spec.kind) {
     case 'static':
-      if (!(p.mu / p.sigma < 1)) return absent(kind, 'ergoregion');
-      omega = 0;
+    case 'zamo': {
+      const reason = stationaryAbsence(s, spec.kind, r, p);
+      // Outside the outer horizon (checked above) only 'ergoregion' or 'noZamo' can come back.
+      if (reason) return absent(kind, reason === 'ergoregion' || reason === 'noZamo' ? reason : 'insideHorizon');
+      omega = spec.kind === 'static' ? 0 : (s.a * p.mu) / p.bigA;
       break;
-    case 'zamo':
-      if (!(p.bigA > 0)) return absent(kind, 'noZamo');
-      omega = (s.a * p.mu) / p.bigA;
-      break;
+    }
     case 'circular':
       if (Math.abs(Math.cos(theta)) > EQUATOR_COS) return absent(kind, 'notEquatorial');
       omega = circularOrbitAngularVelocity(s, r, spec.direction);

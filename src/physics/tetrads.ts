@@ -4,10 +4,11 @@
  * of a particle or photon launched in a direction and with a speed measured in such a frame.
  *
  * Geometric units G = c = M = 1; signature (−,+,+,+). Observers (four-velocity u):
- * - static: u ∝ ∂_v (= ∂_t), at rest relative to the distant stars; exists where g_vv < 0, i.e. outside
- *   the ergosurface.
+ * - static: u ∝ ∂_v (= ∂_t), at rest relative to the distant stars.
  * - zamo: zero angular momentum, u_μ = −α ∂_μ t with t the Boyer–Lindquist time, dt = dv − (r² + a²)/Δ dr
- *   (Bardeen, Press & Teukolsky 1972, ApJ 178, 347); exists outside the outer horizon (Δ > 0, A > 0).
+ *   (Bardeen, Press & Teukolsky 1972, ApJ 178, 347).
+ *   Both exist where Δ > 0 (outside the outer horizon and inside the inner one), the static observer
+ *   where g_vv = g_tt < 0 (Σ > μ), the ZAMO where A > 0: observers.ts, stationaryAbsence.
  * - river: the free-faller from rest at infinity (E = 1, L = 0, K = 0), u_μ = (−1, √(r²+a²)/(√(r²+a²)+√μ), 0, 0)
  *   in (v, r, θ, φ̃) — the Boyer–Lindquist u_r = −√((r² + a²)μ)/Δ carried over by p_r → p_r + (E(r² + a²) − aL)/Δ;
  *   exists wherever μ = 2r − Q² ≥ 0, on and inside the horizons too.
@@ -23,15 +24,15 @@
  * rest mass, so λ is proper time); a photon has p = u + n: its energy measured by the observer is 1, which
  * fixes the scale of its affine parameter (λ advances like the observer's clock at the launch).
  */
+import { STATIONARY_REASONS, stationaryAbsence, type StationaryAbsence } from './observers.js';
 import { pointFunctions, type KerrNewman } from './spacetime.js';
 
 export type LaunchObserver = 'static' | 'zamo' | 'river';
 
-export type TetradAbsenceReason = 'insideErgosurface' | 'insideHorizon' | 'noRiver' | 'onAxis' | 'singular';
+export type TetradAbsenceReason = StationaryAbsence | 'noRiver' | 'onAxis' | 'singular';
 
 export const TETRAD_REASONS: Record<TetradAbsenceReason, string> = {
-  insideErgosurface: 'no static observer exists on or inside the ergosurface (g_tt ≥ 0): everything there is dragged round with the hole',
-  insideHorizon: 'no zero-angular-momentum observer stays at fixed r on or inside the outer horizon',
+  ...STATIONARY_REASONS,
   noRiver: 'no observer falling from rest at infinity reaches a point where 2r < Q² (deep inside a charged hole)',
   onAxis: 'on the rotation axis (sin θ = 0) the azimuthal direction is undefined: start off the axis',
   singular: 'the point is at or too close to the singularity (Σ = 0)',
@@ -98,16 +99,19 @@ export function observerTetrad(s: KerrNewman, observer: LaunchObserver, r: numbe
   const ginv = ingoingInverseMetric(s, r, th);
   const rho2 = r * r + a * a;
   const mu = 2 * r - s.q * s.q;
-  const delta = rho2 - mu;
+  const p = pointFunctions(s, r, th);
   let u: number[];
+  if (observer !== 'river') {
+    const absence = stationaryAbsence(s, observer, r, p);
+    if (absence) return { ok: false, reason: absence };
+  }
   if (observer === 'static') {
-    if (!(g[0]! < 0)) return { ok: false, reason: 'insideErgosurface' };
+    // g_vv = −(1 − μ/Σ) may still round to 0 when Σ exceeds μ by an ulp.
+    if (!(g[0]! < 0)) return { ok: false, reason: 'ergoregion' };
     u = [1 / Math.sqrt(-g[0]!), 0, 0, 0];
   } else if (observer === 'zamo') {
-    const bigA = pointFunctions(s, r, th).bigA;
-    if (!(delta > 0 && bigA > 0)) return { ok: false, reason: 'insideHorizon' };
-    const alpha = Math.sqrt((sigma * delta) / bigA);
-    u = mul(ginv, [-alpha, (alpha * rho2) / delta, 0, 0]);
+    const alpha = Math.sqrt((sigma * p.delta) / p.bigA);
+    u = mul(ginv, [-alpha, (alpha * rho2) / p.delta, 0, 0]);
   } else {
     if (mu < 0) return { ok: false, reason: 'noRiver' };
     const rho = Math.sqrt(rho2);

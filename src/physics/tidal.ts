@@ -11,10 +11,12 @@
  * Observers and their spatial triads (radial outward, polar towards increasing θ, azimuthal along
  * the spin), each given by its components in the principal frame of curvature.ts:
  * - static: u ∝ ∂t. Relative to Carter's e0 it moves along e3 at β = −a sinθ/√Δ, so
- *   u = γ(e0 + β e3), e_φ = γ(β e0 + e3), e_r = e1, e_θ = e2, with γ = √(Δ/(Σ − μ)). Exists outside
- *   the ergosurface (Σ > μ) and the horizon.
+ *   u = γ(e0 + β e3), e_φ = γ(β e0 + e3), e_r = e1, e_θ = e2, with γ = √(Δ/(Σ − μ)).
  * - ZAMO: u ∝ ∂t + ω∂φ, β = −a sinθ √Δ/(r² + a²), γ = (r² + a²)/√A (Bardeen, Press & Teukolsky 1972,
- *   ApJ 178, 347, §III). Exists outside the outer horizon (Δ > 0, A > 0).
+ *   ApJ 178, 347, §III).
+ *   Both exist where Δ > 0 — outside the outer horizon and inside the inner one — the static observer
+ *   where Σ > μ, the ZAMO where A > 0 (observers.ts, stationaryAbsence): their tides are local and need
+ *   no comparison with far-away clocks.
  * - river: the zero-angular-momentum free-faller from rest at infinity (E = 1, L = 0, Carter's
  *   K = 0), whose covariant velocity is u = (−1, −√((r²+a²)μ)/Δ, 0, 0) (spacetime.ts). Its component
  *   along e3 is u·e3 = −a sinθ/√Σ; its part in the e0–e1 plane, of norm √((r² + a²)/Σ), defines the
@@ -36,7 +38,8 @@
  */
 import { eigs } from 'mathjs';
 import { contract, weylPsi2, type Complex, type Tensor4 } from './curvature.js';
-import { horizons, pointFunctions, type KerrNewman } from './spacetime.js';
+import { stationaryAbsence, type StationaryAbsence } from './observers.js';
+import { pointFunctions, type KerrNewman } from './spacetime.js';
 
 export type TidalObserverKind = 'static' | 'zamo' | 'river';
 
@@ -48,7 +51,7 @@ export interface Tetrad {
   azimuthal: number[];
 }
 
-export type TetradAbsence = 'insideHorizon' | 'onHorizon' | 'ergoregion' | 'noZamo' | 'noFlow';
+export type TetradAbsence = StationaryAbsence | 'noFlow';
 
 export type TetradResult = { exists: true; tetrad: Tetrad } | { exists: false; reason: TetradAbsence };
 
@@ -70,11 +73,7 @@ function geometry(s: KerrNewman, r: number, theta: number): FrameGeometry {
 /** Why the observer `kind` cannot exist here, or null if it can. */
 function absence(s: KerrNewman, kind: TidalObserverKind, r: number, g: FrameGeometry): TetradAbsence | null {
   if (kind === 'river') return g.mu < 0 ? 'noFlow' : null;
-  const h = horizons(s);
-  if (h && r < h.outer) return 'insideHorizon';
-  if (h && r === h.outer) return 'onHorizon';
-  if (kind === 'static') return g.sigma - g.mu > 0 ? null : 'ergoregion';
-  return g.delta > 0 && g.bigA > 0 ? null : 'noZamo';
+  return stationaryAbsence(s, kind, r, g);
 }
 
 /**

@@ -51,7 +51,7 @@ describe('POST /v1/tidal', () => {
     const inside = await tidal({ body: { mass: '10 Msun', spin: 0.9 }, point: { r: '1.2 rg', theta: '30 deg' } });
     expect(inside.point.region).toBe('betweenHorizons');
     expect(byKind(inside, 'static')).toMatchObject({ exists: false, tensor: null, principal: null });
-    expect(byKind(inside, 'static').reason).toMatch(/inside the outer horizon/);
+    expect(byKind(inside, 'static').reason).toMatch(/between the outer and the inner horizon/);
     expect(byKind(inside, 'zamo').exists).toBe(false);
     expect(byKind(inside, 'river').principal).toHaveLength(3);
     const ergo = await tidal({ body: { mass: '10 Msun', spin: 0.9 }, point: { r: '1.8 rg' } });
@@ -59,6 +59,26 @@ describe('POST /v1/tidal', () => {
     expect(byKind(ergo, 'static').reason).toMatch(/ergosurface/);
     expect(byKind(ergo, 'zamo').exists).toBe(true);
     expect(byKind(ergo, 'river').exists).toBe(true);
+  });
+
+  it('inside the inner horizon of a charged hole static observers exist again: f″/2 along r, f′/(2r) across', async () => {
+    // Reissner–Nordström, Q = 0.6 M: r− = 0.2 M, so r = 0.1 M lies inside the inner horizon, where
+    // f = 1 − 2M/r + Q²/r² = 17 > 0. For −f dt² + dr²/f + r² dΩ² a static observer sees E_rr = f″/2 and
+    // E_θθ = E_φφ = f′/(2r) (the curvature of a static spherical metric; from memory, and the sympy-built
+    // Riemann tensor of the curvature fixture holds the service to it at this point): in units of M,
+    // E_rr = −2/r³ + 3Q²/r⁴ = 8800 (a squeeze along r) and E_θθ = 1/r³ − Q²/r⁴ = −2600 (a stretch across).
+    const t = await tidal({ body: { mass: '10 Msun', charge: 0.6 }, point: { r: '0.1 rg' } });
+    expect(t.point.region).toBe('insideInnerHorizon');
+    const perM2 = 1 / t.body.tg.value ** 2;
+    for (const kind of ['static', 'zamo']) {
+      const o = byKind(t, kind);
+      expect(o.exists, kind).toBe(true);
+      const e = o.tensor!.components;
+      expectRel(e[0]![0]!, 8800 * perM2, 1e-12);
+      expectRel(e[1]![1]!, -2600 * perM2, 1e-12);
+      expectRel(e[2]![2]!, -2600 * perM2, 1e-12);
+      expect(o.principal!.map((p) => p.effect)).toEqual(['stretch', 'stretch', 'squeeze']);
+    }
   });
 
   it('deep inside a charged hole (2r < Q²) the river does not reach: null with the reason', async () => {

@@ -150,16 +150,20 @@ describe('the ingoing Kerr–Newman metric and the observers', () => {
     }
   });
 
-  it('each tetrad is orthonormal; the river frame exists inside the horizon', () => {
+  it('each tetrad is orthonormal; the river frame exists inside the horizon, static observers and ZAMOs inside the inner one', () => {
+    // r+ = 1 + √0.15 ≈ 1.387, r− ≈ 0.613. At r = 0.3, θ = 0.3: Δ = 0.34 > 0, Σ ≈ 0.829 > μ = 0.56, A > 0.
     const s = { a: 0.9, q: 0.2 };
-    for (const [obs, r] of [
-      ['static', 8],
-      ['zamo', 2],
-      ['river', 8],
-      ['river', 1.2],
-      ['river', 0.3],
+    for (const [obs, r, th] of [
+      ['static', 8, 1.1],
+      ['zamo', 2, 1.1],
+      ['river', 8, 1.1],
+      ['river', 1.2, 1.1],
+      ['river', 0.3, 1.1],
+      ['static', 0.3, 0.3],
+      ['zamo', 0.3, 0.3],
+      ['zamo', 0.3, 1.1],
     ] as const) {
-      const t = observerTetrad(s, obs, r, 1.1);
+      const t = observerTetrad(s, obs, r, th);
       if (!t.ok) throw new Error(`${obs} at ${r}: ${t.reason}`);
       const { e, g } = t.tetrad;
       for (let i = 0; i < 4; i++) {
@@ -171,8 +175,12 @@ describe('the ingoing Kerr–Newman metric and the observers', () => {
         }
       }
     }
-    expect(observerTetrad(s, 'static', 1.9, Math.PI / 2)).toEqual({ ok: false, reason: 'insideErgosurface' });
-    expect(observerTetrad(s, 'zamo', 1.2, 1.1)).toEqual({ ok: false, reason: 'insideHorizon' });
+    expect(observerTetrad(s, 'static', 1.9, Math.PI / 2)).toEqual({ ok: false, reason: 'ergoregion' });
+    expect(observerTetrad(s, 'zamo', 1.2, 1.1)).toEqual({ ok: false, reason: 'betweenHorizons' });
+    expect(observerTetrad(s, 'static', 1.2, 0.3)).toEqual({ ok: false, reason: 'betweenHorizons' });
+    // Inside the inner horizon, near the equator: the inner sheet of the ergoregion (Σ ≈ 0.257 < μ = 0.56).
+    expect(observerTetrad(s, 'static', 0.3, 1.1)).toEqual({ ok: false, reason: 'ergoregion' });
+    expect(observerTetrad(s, 'static', 1 + Math.sqrt(0.15), 0.3)).toEqual({ ok: false, reason: 'onHorizon' });
     expect(observerTetrad({ a: 0.3, q: 0.9 }, 'river', 0.2, 1.1)).toEqual({ ok: false, reason: 'noRiver' });
     expect(observerTetrad(s, 'zamo', 10, 0)).toEqual({ ok: false, reason: 'onAxis' });
   });

@@ -7,7 +7,8 @@ import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { riemannAt } from '../../src/physics/curvature.js';
-import { flowSpeed, pointFunctions } from '../../src/physics/spacetime.js';
+import { flowSpeed, horizons, pointFunctions } from '../../src/physics/spacetime.js';
+import { observerTetrad as launchTetrad } from '../../src/physics/tetrads.js';
 import {
   disruptionRadius,
   hillsMassRatio,
@@ -90,6 +91,27 @@ describe('tetrads', () => {
       }),
       { numRuns: 300 },
     );
+  });
+
+  it('static observers and ZAMOs exist where Δ > 0 (inside the inner horizon too), as for geodesic launches', () => {
+    let innerSeen = 0;
+    fc.assert(
+      fc.property(points, ([a, q, r, th]) => {
+        const s = { a, q };
+        const p = pointFunctions(s, r, th);
+        const h = horizons(s);
+        const between = h !== null && r >= h.inner && r <= h.outer;
+        for (const kind of ['static', 'zamo'] as const) {
+          const want = !between && (kind === 'static' ? p.sigma > p.mu : p.bigA > 0);
+          expect(observerTetrad(s, kind, r, th).exists, kind).toBe(want);
+          // The geodesic engine's frames (ingoing coordinates) exist at the same points, off the axis.
+          if (Math.sin(th) > 1e-6 && p.sigma > 1e-9) expect(launchTetrad(s, kind, r, th).ok, kind).toBe(want);
+          if (want && h !== null && r < h.inner) innerSeen++;
+        }
+      }),
+      { numRuns: 500 },
+    );
+    expect(innerSeen).toBeGreaterThan(0);
   });
 
   it('river = the ZAMO frame boosted inward along its radial axis by the flow speed (outside the horizon)', () => {
