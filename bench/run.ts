@@ -139,7 +139,7 @@ async function probe(server: Server, c: BenchCase): Promise<string> {
  */
 async function startAll(payloadDir: string): Promise<Record<Target, Server>> {
   // As the README starts it — the default in-memory result cache, so repeated requests are served from
-  // it — except LOG_LEVEL=warn: at the default (info) fastify writes two access-log lines per request.
+  // it — except LOG_LEVEL=warn: at the default (info) every request writes an access-log line.
   const service = await startServer('service', ['dist/src/server.js'], {
     cwd: ROOT,
     env: { HOST: '127.0.0.1', LOG_LEVEL: 'warn', ...NO_SHEDDING },
@@ -292,7 +292,7 @@ async function httpPart(): Promise<string> {
     machineLine(),
     `autocannon ${autocannonVersion()} · ${CONNECTIONS} connections · ${rounds} rounds of every case, ${seconds} s measured each after ${warmupSeconds} s warm-up · each server and the client in its own process, on 127.0.0.1 · load average at start ${httpLoad.toFixed(2)}`,
     'req/s: median over the rounds (the bare tiny route: over all its runs, one before each case and one after the last); "vs bare tiny": each round\'s req/s over the mean of the tiny runs just before and after it, median with the rounds\' range in brackets; other ratios: round by round; p50/p99: all rounds\' responses pooled',
-    `target for ${TARGET_CASES.map((c) => c.name).join(' and ')}: ≥ ${TARGET_RATIO * 100}% of the bare tiny route's req/s and p99 < ${TARGET_P99_MS} ms, no errors, with the service as the README starts it (default in-memory result cache: autocannon repeats one request, so after the first each is a cache hit) but LOG_LEVEL=warn (the default, info, writes two access-log lines per request)`,
+    `target for ${TARGET_CASES.map((c) => c.name).join(' and ')}: ≥ ${TARGET_RATIO * 100}% of the bare tiny route's req/s and p99 < ${TARGET_P99_MS} ms, no errors, with the service as the README starts it (default in-memory result cache: autocannon repeats one request, so after the first each is a cache hit) but LOG_LEVEL=warn (the default, info, writes an access-log line per request)`,
     'rows marked (computed) run against a second service with CACHE_MAX_BYTES=0, so every request is validated, keyed, computed and serialised; "target met" applies the same test to them for context',
     '"vs same payload": against a bare route sending the same response bytes, pre-serialised (no work but fastify\'s own)',
     '"server CPU µs/req": user + system CPU time of the server process over the measured seconds (/proc/<pid>/stat) per request answered, median over the rounds; the client (autocannon, in this process) shares this machine’s cores, so req/s also depends on what each response costs the client to read',

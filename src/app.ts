@@ -6,6 +6,7 @@ import { randomUUID } from 'node:crypto';
 import fastifySwagger from '@fastify/swagger';
 import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import { AccessLog } from './access-log.js';
 import { readCommittedOpenApi } from './api/openapi-file.js';
 import { registerQuantities } from './api/quantities.js';
 import { COMPUTE_ROUTES } from './api/registry.js';
@@ -48,6 +49,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const config = options.config ?? defaultConfig({ MAX_EVENT_LOOP_DELAY_MS: 0 });
   const app = Fastify({
     logger: options.logger ?? { level: config.LOG_LEVEL },
+    logController: new AccessLog(),
     bodyLimit: config.BODY_LIMIT_BYTES,
     requestTimeout: config.REQUEST_TIMEOUT_MS,
     // A client's x-request-id is kept when it is short and plain; otherwise a fresh UUID.

@@ -24,7 +24,8 @@ const READ_PAUSE_MS = 10;
 
 let service: ServiceProcess;
 beforeAll(async () => {
-  service = await startService({ MAX_EVENT_LOOP_DELAY_MS: '0', SHUTDOWN_GRACE_MS: '120000', RETRY_AFTER_S: '2' });
+  // debug: the access log's arrival line ("incoming request") tells which requests reached the service, and when.
+  service = await startService({ MAX_EVENT_LOOP_DELAY_MS: '0', SHUTDOWN_GRACE_MS: '120000', RETRY_AFTER_S: '2', LOG_LEVEL: 'debug' });
 }, 120_000);
 afterAll(() => service?.kill());
 
