@@ -38,7 +38,7 @@ const launchStart = z
     point: pointWithPhi,
     observer: z.enum(['static', 'zamo', 'river']).meta({
       description:
-        'The frame in which speed and direction are measured. static: at rest relative to the distant stars (only where g_tt < 0: outside the ergosurface, or inside the inner horizon away from the equator); zamo: zero angular momentum (outside the outer horizon or inside the inner one, where g_φφ > 0); river: falling freely from rest at infinity (E = 1, L = 0), everywhere 2r ≥ Q², inside the horizons too.',
+        'The frame in which speed and direction are measured. static: at rest relative to the distant stars (only where g_tt < 0: outside the ergosurface, or inside the inner horizon but outside its inner ergosurface); zamo: zero angular momentum (outside the outer horizon or inside the inner one, where g_φφ > 0); river: falling freely from rest at infinity (E = 1, L = 0), everywhere 2r ≥ Q², inside the horizons too.',
     }),
     speed: quantityInput.optional().meta({
       description: 'Speed measured by the observer, e.g. "0.3 c" or m/s, in [0, c) for a massive particle (default 0: released at rest in that frame). Light needs none.',
