@@ -117,7 +117,7 @@ const SPACETIME = '/v1/spacetime';
 
 export const CATALOGUE: readonly QuantityInfo[] = [
   q('flowSpeed', 'm/s', 'speed', LOCAL,
-    'Speed of the inward flow of space: the speed, measured by the local ZAMO, of observers falling from rest at infinity with zero angular momentum. Equals the Newtonian escape speed sqrt(2GM/r) for a non-rotating uncharged body, reaches c on the outer horizon and exceeds it inside.'),
+    'Speed of the inward flow of space: the speed, measured by the local ZAMO, of observers falling from rest at infinity with zero angular momentum. Equals the Newtonian escape speed sqrt(2GM/r) for a non-rotating uncharged body, reaches c on the outer horizon, exceeds it between the horizons and falls below c again inside the inner horizon of a spinning or charged hole.'),
   q('escapeSpeed', 'm/s', 'speed', LOCAL,
     'ZAMO-measured speed of a zero-angular-momentum launch that just reaches infinity; equal to flowSpeed outside the horizon, null at and inside it.'),
   q('staticClockRate', '1', 'none', LOCAL,

@@ -35,7 +35,7 @@ export type TransformReason = 'onHorizon' | 'noRiverChart' | 'singularity' | 'no
 
 export const TRANSFORM_REASONS: Record<TransformReason, string> = {
   onHorizon: 'on a horizon the Boyer–Lindquist t and φ are infinite (the chart does not reach it); use the river or Kerr–Schild chart',
-  noRiverChart: 'river coordinates do not exist where 2GM r/c² < Q² (deep inside a charged hole no observer falls there from rest at infinity)',
+  noRiverChart: 'river coordinates do not exist where 2GM r/c² < Q² (very close to the centre of a charged mass no observer falls there from rest at infinity)',
   singularity: 'the event is on the curvature singularity (Σ = r² + a² cos²θ = 0)',
   notConverged: 'the quadrature of the river coordinates did not reach its tolerance here',
   negativeRadius: 'r < 0 (the sheet beyond the disk) is not covered; r ≥ 0 only',

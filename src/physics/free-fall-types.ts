@@ -33,14 +33,14 @@ export const FALL_REASONS: Record<FallRefusalReason | FallNullReason, string> = 
   startInsideHorizon:
     'the start is inside the outer horizon: no observer can be at rest there or measure a launch speed',
   startUnreachable:
-    'a body falling from rest at infinity never reaches this start radius (deep inside a charged hole it turns back where 2r = Q²)',
+    'a body falling from rest at infinity never reaches this start radius (close to the centre of a charged mass it turns back where 2r = Q²)',
   wrongDirection: 'the end radius lies in the other direction from the start than the motion goes',
   turnsBack: 'the body turns back before it reaches the end radius (its radial speed falls to zero at turningRadius)',
   notConverged: 'the quadrature did not reach the requested tolerance',
   reachesHorizon: 'the path reaches or crosses the outer horizon, where far-away time t diverges',
   startsOnHorizon: 'a fall from rest exactly on the outer horizon has E = 0: its far-away and river times diverge',
   noRiverTime:
-    'the path enters the region 2r < Q² deep inside a charged hole, where no observer falls from rest at infinity and the river time is not defined',
+    'the path enters the region 2r < Q² close to the centre of a charged mass, where no observer falls from rest at infinity and the river time is not defined',
 };
 
 export interface FreeFallRequest {

@@ -59,7 +59,7 @@ export const REASONS = {
   noFlow:
     'here 2GMr/c² < Q²G/(4πε0c⁴) (2r < Q² in units of M): no observer falling from rest at infinity reaches this point, so the flow has no real speed',
   noCausalRegion:
-    'here g_φφ < 0 (the region of closed timelike curves deep inside a spinning, charged hole): the flow and the ZAMOs are not defined',
+    'here g_φφ < 0 (the region of closed timelike curves very close to the centre of a spinning, charged mass): the flow and the ZAMOs are not defined',
   escapeInside: 'at or inside the outer horizon nothing escapes to infinity',
   notFinite: 'the value is not finite in double precision at this point',
   underflow:
@@ -127,7 +127,8 @@ export function evaluateLocal(
         reasons[n] = REASONS.ergoregion;
       }
     }
-    for (const n of zamoNames) if (Number.isNaN(values[n])) reasons[n] = flowReason(p);
+    // Outside the horizons the ZAMO is missing only where A ≤ 0 (g_φφ < 0); it needs no flow.
+    for (const n of zamoNames) if (Number.isNaN(values[n])) reasons[n] = REASONS.noCausalRegion;
     if (Number.isNaN(values.frameDragRate)) reasons.frameDragRate = REASONS.noCausalRegion;
   }
   for (const n of LOCAL_QUANTITIES) {

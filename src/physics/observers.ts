@@ -133,7 +133,7 @@ export const STATIONARY_REASONS: Record<StationaryAbsence, string> = {
  * i.e. outside the outer horizon or inside the inner one (between them r is a time coordinate, and on
  * them only light stays at fixed r); there the static observer needs g_tt < 0 (Σ > μ: outside the
  * ergosurface, or inside its inner sheet) and the ZAMO g_φφ > 0 (A > 0; not in the region of closed
- * timelike curves deep inside a spinning, charged hole). Null where the observer exists. The
+ * timelike curves very close to the centre of a spinning, charged mass). Null where the observer exists. The
  * horizon test uses the roots themselves, so its sign is exact next to them (Δ = (r − r₊)(r − r₋));
  * a point whose computed Δ still rounds to ≤ 0 counts as on the horizon.
  * Whether a clock there can be compared with far-away clocks is a separate question

@@ -164,8 +164,8 @@ export function riverMetric(s: KerrNewman, p: PointFunctions): RiverMetric | nul
 
 /**
  * (r² + a²) μ / A: the square of the flow speed in units of c² where μ ≥ 0, and in every case
- * 1 − α² with α the ZAMO lapse. Not a number where A ≤ 0 (deep inside a spinning, charged hole,
- * where g_φφ < 0 and no ZAMO exists).
+ * 1 − α² with α the ZAMO lapse. Not a number where A ≤ 0 (very close to the centre of a spinning,
+ * charged mass, where g_φφ < 0 and no ZAMO exists).
  */
 function oneMinusLapseSquared(p: PointFunctions): number {
   if (!(p.bigA > 0)) return Number.NaN;
@@ -218,7 +218,7 @@ function staticPotential(p: PointFunctions): number {
 
 /**
  * 1 − dτ/dt of a static observer (fixed r, θ, φ), as x/(1 + √(1 − x)) with x = μ/Σ, keeping full
- * relative precision for weak fields (Earth's surface: 6.97e-10; 1 m of height: 1.09e-16).
+ * relative precision for weak fields (Earth's equatorial surface: 6.95e-10; 1 m of height: 1.09e-16).
  * NaN where no static observer exists (x ≥ 1: on or inside the ergosurface).
  */
 export function staticClockOffset(p: PointFunctions): number {

@@ -33,7 +33,7 @@ export type TetradAbsenceReason = StationaryAbsence | 'noRiver' | 'onAxis' | 'si
 
 export const TETRAD_REASONS: Record<TetradAbsenceReason, string> = {
   ...STATIONARY_REASONS,
-  noRiver: 'no observer falling from rest at infinity reaches a point where 2r < Q² (deep inside a charged hole)',
+  noRiver: 'no observer falling from rest at infinity reaches a point where 2r < Q² (very close to the centre of a charged mass)',
   onAxis: 'on the rotation axis (sin θ = 0) the azimuthal direction is undefined: start off the axis',
   singular: 'the point is at or too close to the singularity (Σ = 0)',
 };

@@ -46,6 +46,23 @@ describe('evaluateLocal', () => {
     expect(l.river).toBeNull();
   });
 
+  it('no horizon, g_φφ < 0 near the centre of a spinning, charged mass: the ZAMO is missing for that reason, not for want of flow', () => {
+    // a = 0.5, Q = 1.2 (no horizon), r = 0.1 at the equator: A = (r²+a²)² − a²Δ = 0.0676 − 0.25·1.5 < 0
+    // and 2r < Q². The ZAMO needs only A > 0; the flow needs 2r ≥ Q² as well.
+    const l = evaluateLocal({ a: 0.5, q: 1.2 }, 0.1, Math.PI / 2, 0.05);
+    expect(l.region).toBe('outside');
+    for (const n of ['zamoClockRate', 'zamoClockOffset', 'frameDragRate'] as const) {
+      expect(l.values[n], n).toBeNaN();
+      expect(l.reasons[n], n).toBe(REASONS.noCausalRegion);
+    }
+    expect(l.reasons.flowSpeed).toBe(REASONS.noFlow);
+    // Where 2r < Q² but A > 0 the ZAMO exists (its clock runs faster than far-away clocks).
+    const z = evaluateLocal({ a: 0.5, q: 1.2 }, 0.5, Math.PI / 2, 0.05);
+    expect(z.values.flowSpeed).toBeNaN();
+    expect(z.values.zamoClockRate).toBeGreaterThan(1);
+    expect(z.reasons.zamoClockRate).toBeUndefined();
+  });
+
   it('on the outer horizon the flow speed is c and ω is the horizon angular velocity', () => {
     const s = { a: 1, q: 0 }; // r+ = 1 exactly
     const l = evaluateLocal(s, 1, Math.PI / 2);
