@@ -61,6 +61,9 @@ describe('evaluateLocal', () => {
     expect(z.values.flowSpeed).toBeNaN();
     expect(z.values.zamoClockRate).toBeGreaterThan(1);
     expect(z.reasons.zamoClockRate).toBeUndefined();
+    // E = α > 1 for a body at rest there: no launch has the marginal energy E = 1.
+    expect(z.values.escapeSpeed).toBeNaN();
+    expect(z.reasons.escapeSpeed).toBe(REASONS.noMarginalEscape);
   });
 
   it('on the outer horizon the flow speed is c and ω is the horizon angular velocity', () => {
