@@ -62,7 +62,7 @@ export const REASONS = {
     'here g_φφ < 0 (the region of closed timelike curves very close to the centre of a spinning, charged mass): the flow and the ZAMOs are not defined',
   escapeInside: 'at or inside the outer horizon nothing escapes to infinity',
   noMarginalEscape:
-    'here 2r < Q² (in units of M): a body at rest already has more than its rest energy (the ZAMO clock runs faster than far-away clocks), so no launch has exactly the energy to just reach infinity, which is what the escape speed measures',
+    'here 2r < Q² (in units of M): a body at rest relative to the ZAMO already has more than its rest energy (the ZAMO clock runs faster than far-away clocks), so no launch has exactly the energy to just reach infinity, which is what the escape speed measures',
   notFinite: 'the value is not finite in double precision at this point',
   underflow:
     'the value is positive but below the range of double precision here (far from the body curvature invariants fall off as 1/r⁶ or faster)',
