@@ -106,7 +106,9 @@ export function computeDeflection(input: DeflectionRequest): DeflectionResponse 
       ? 'Exact deflection from Darwin\'s elliptic-integral form (Carlson\'s R_F).'
       : d.method === 'series'
         ? 'Exact deflection from its convergent series in GM/(c²b) (far from the photon orbit).'
-        : 'Exact deflection by tanh-sinh quadrature of the equatorial orbit equation.',
+        : d.method === 'quadrature'
+          ? 'Exact deflection by tanh-sinh quadrature of the equatorial orbit equation.'
+          : 'No deflection angle: the ray does not pass a closest approach and come back out (the reason is given with it).',
   );
   if (body.spin !== 0) notes.push('With spin the ray is taken in the equatorial plane.');
   return {
@@ -161,7 +163,10 @@ export const delayResponse = z
   .object({
     service: serviceStamp,
     body: bodyEchoSchema,
-    oneWay: timeValue.meta({ description: 'Exact excess coordinate time of the signal over the straight flat-space path.' }),
+    oneWay: timeValue.meta({
+      description:
+        'Exact excess coordinate time of the signal over the straight flat-space path, with r₁, r₂, r₀ read as Schwarzschild radii. That reading of the radii is a choice of coordinates and changes the excess by terms of order GM/c³ per leg; observations are analysed with the weak-field formula (weakFieldOneWay) in the coordinates of the ephemerides.',
+    }),
     roundTrip: timeValue,
     weakFieldOneWay: timeValue.meta({ description: 'Shapiro\'s logarithmic formula (2GM/c³) ln[(r₁ + √(r₁² − r₀²))(r₂ + √(r₂² − r₀²))/r₀²].' }),
     weakFieldRoundTrip: timeValue,

@@ -76,7 +76,8 @@ export const LIGHT_REASONS: Record<DeflectionRefusalReason | DeflectionNullReaso
   notConverged: 'the quadrature did not reach the requested tolerance',
   captured: 'the impact parameter is below the critical one: the ray spirals into the black hole and is not deflected back out',
   critical: 'the ray has exactly the critical impact parameter: it winds onto the circular photon orbit and its deflection is infinite',
-  hitsSurface: 'the ray reaches the surface of the body before its closest approach',
+  hitsSurface:
+    'the ray reaches the surface of the body before its closest approach (for a ray that grazes the surface, give closestApproach = the radius instead of an impact parameter)',
 };
 
 export interface DeflectionRequest {
@@ -435,7 +436,8 @@ export function deflection(s: KerrNewman, req: DeflectionRequest, options: Defle
       return result(s, direction, orbit, b, null, null, 'hitsSurface', 'none', 0, 0);
     }
     if (orbit && b <= orbit.criticalImpactParameter) {
-      const why = b === orbit.criticalImpactParameter ? 'critical' : 'captured';
+      // Below b_c the ray would plunge; a body with a surface (inside its own photon orbit) stops it there.
+      const why = b === orbit.criticalImpactParameter ? 'critical' : surface !== undefined ? 'hitsSurface' : 'captured';
       return result(s, direction, orbit, b, null, null, why, 'none', 0, 0);
     }
     if (schwarzschild) {

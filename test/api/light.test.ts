@@ -36,6 +36,22 @@ describe('deflection', () => {
     expect(captured.deflection.reason).toMatch(/critical/);
   });
 
+  it('a ray that would not come back out gets no angle, says why, and points to closestApproach for a grazing ray', async () => {
+    // The solar limb as an impact parameter: r₀ ≈ b − GM/c² lies ~1.5 km below the surface.
+    const limb = await ok('/v1/light/deflection', { body: 'sun', ray: { impactParameter: '1 Rsun' } }, deflectionResponse);
+    expect(limb.method).toBe('none');
+    expect(limb.deflection.value).toBeNull();
+    expect(limb.deflection.reason).toMatch(/surface.*closestApproach/);
+    expect(limb.notes.join(' ')).toMatch(/No deflection angle/);
+    expect(limb.notes.join(' ')).not.toMatch(/quadrature/);
+    // An ultra-compact body inside its own photon orbit (radius 2.9 GM/c² < 3): below b_c the ray would
+    // plunge, so it ends on the surface — not "into the black hole".
+    const compact = await ok('/v1/light/deflection', { body: { mass: '1 Msun', radius: '2.9 rg' }, ray: { impactParameter: '5 rg' } }, deflectionResponse);
+    expect(compact.deflection.value).toBeNull();
+    expect(compact.deflection.reason).toMatch(/surface/);
+    expect(compact.deflection.reason).not.toMatch(/black hole/);
+  });
+
   it('spinning hole: a retrograde ray is bent more than a prograde one at the same closest approach', async () => {
     const body = { mass: '1 Msun', spin: 0.9 };
     const pro = await ok('/v1/light/deflection', { body, ray: { closestApproach: '10 rg' }, direction: 'prograde' }, deflectionResponse);
