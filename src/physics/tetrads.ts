@@ -92,14 +92,11 @@ export type TetradResult = { ok: true; tetrad: Tetrad } | { ok: false; reason: T
 export function observerTetrad(s: KerrNewman, observer: LaunchObserver, r: number, th: number): TetradResult {
   const sn = Math.sin(th);
   if (!(Math.abs(sn) > 1e-9)) return { ok: false, reason: 'onAxis' };
-  const a = s.a;
-  const sigma = r * r + a * a * Math.cos(th) ** 2;
+  const p = pointFunctions(s, r, th);
+  const { sigma, rho2, mu } = p;
   if (!(sigma > 1e-12)) return { ok: false, reason: 'singular' };
   const g = ingoingMetric(s, r, th);
   const ginv = ingoingInverseMetric(s, r, th);
-  const rho2 = r * r + a * a;
-  const mu = 2 * r - s.q * s.q;
-  const p = pointFunctions(s, r, th);
   let u: number[];
   if (observer !== 'river') {
     const absence = stationaryAbsence(s, observer, r, p);
