@@ -110,7 +110,8 @@ export function evaluateLocal(
     reasons.escapeSpeed = REASONS.escapeInside;
   } else {
     values.escapeSpeed = values.flowSpeed;
-    if (reasons.flowSpeed) reasons.escapeSpeed = reasons.flowSpeed === REASONS.noFlow ? REASONS.noMarginalEscape : reasons.flowSpeed;
+    // Where g_φφ < 0 there is no ZAMO to launch from; where only 2r < Q², no launch is marginal.
+    if (reasons.flowSpeed) reasons.escapeSpeed = !(p.bigA > 0) ? REASONS.noCausalRegion : p.mu < 0 ? REASONS.noMarginalEscape : reasons.flowSpeed;
   }
 
   const staticNames = ['staticClockRate', 'staticClockOffset', 'redshiftToInfinity', 'hoverAcceleration'] as const;

@@ -56,6 +56,7 @@ describe('evaluateLocal', () => {
       expect(l.reasons[n], n).toBe(REASONS.noCausalRegion);
     }
     expect(l.reasons.flowSpeed).toBe(REASONS.noFlow);
+    expect(l.reasons.escapeSpeed).toBe(REASONS.noCausalRegion);
     // Where 2r < Q² but A > 0 the ZAMO exists (its clock runs faster than far-away clocks).
     const z = evaluateLocal({ a: 0.5, q: 1.2 }, 0.5, Math.PI / 2, 0.05);
     expect(z.values.flowSpeed).toBeNaN();
